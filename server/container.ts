@@ -1,0 +1,33 @@
+import type { Redis } from 'ioredis';
+import type { DataSource } from 'typeorm';
+import type { Env } from './config/env';
+import type { Logger } from './lib/logger';
+import type { Mailer } from './lib/mailer';
+import { AuthRepository } from './modules/auth/auth.repository';
+import { AuthService } from './modules/auth/auth.service';
+import { NotificationsRepository } from './modules/notifications/notifications.repository';
+import { emailChannel, NotificationsService } from './modules/notifications/notifications.service';
+import type { Queues } from './queues';
+
+export type CoreDeps = {
+  config: Env;
+  ds: DataSource;
+  redis: Redis;
+  queues: Queues;
+  mailer: Mailer;
+  logger: Logger;
+};
+
+/** The composition root: builds every service once. Server and worker both use it. */
+export function createServices(deps: CoreDeps) {
+  const notifications = new NotificationsService(new NotificationsRepository(deps.ds), emailChannel(deps.mailer), deps.logger);
+  const auth = new AuthService(
+    new AuthRepository(deps.ds),
+    notifications,
+    { jwtSecret: deps.config.JWT_SECRET, jwtTtlSeconds: deps.config.JWT_TTL_SECONDS, publicUrl: deps.config.PUBLIC_URL },
+    deps.logger,
+  );
+  return { notifications, auth };
+}
+
+export type Services = ReturnType<typeof createServices>;

@@ -1,0 +1,89 @@
+import { Router, type NextFunction, type Request, type Response } from 'express';
+import { z } from 'zod';
+import { roleOnFarm, type AuthUser } from './auth-context';
+import { forbidden, notFound, unauthorized, validationError } from './errors';
+import type { RouteDef } from './route-registry';
+
+export const SESSION_COOKIE = 'gw_session';
+
+export type Authenticator = {
+  authenticate(token: string): Promise<AuthUser | null>;
+  shouldRenew(user: AuthUser): boolean;
+  issueToken(userId: string, tokenVersion: number): string;
+};
+
+export type CookieOptions = { secure: boolean; maxAgeMs: number };
+
+export function setSessionCookie(res: Response, token: string, opts: CookieOptions): void {
+  res.cookie(SESSION_COOKIE, token, { httpOnly: true, sameSite: 'lax', secure: opts.secure, path: '/', maxAge: opts.maxAgeMs });
+}
+export function clearSessionCookie(res: Response, opts: CookieOptions): void {
+  res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'lax', secure: opts.secure, path: '/' });
+}
+
+function tokenFrom(req: Request): string | null {
+  const header = req.header('authorization');
+  if (header?.startsWith('Bearer ')) return header.slice(7).trim() || null;
+  const cookies = (req as Request & { cookies?: Record<string, string> }).cookies;
+  return cookies?.[SESSION_COOKIE] ?? null;
+}
+
+const fieldErrors = (error: z.ZodError) => z.flattenError(error);
+
+/** Builds the Express router from the route registry: authenticate → params → farm scope → role → input → handler. */
+export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: CookieOptions): Router {
+  const router = Router();
+  for (const route of routes) {
+    const handler = async (req: Request, res: Response, next: NextFunction) => {
+      try {
+        let user: AuthUser | null = null;
+        const token = tokenFrom(req);
+        if (token) user = await auth.authenticate(token);
+        if (route.access.kind !== 'public' && !user) throw unauthorized();
+        if (user && token && !req.header('authorization') && auth.shouldRenew(user)) {
+          setSessionCookie(res, auth.issueToken(user.id, user.tokenVersion), cookie);
+        }
+        // A malformed id in the path names nothing: 404, like an id that does not exist.
+        const params = route.params ? route.params.safeParse(req.params) : { success: true as const, data: req.params };
+        if (!params.success) throw notFound();
+        let farmRole = null;
+        if (route.access.kind === 'roles') {
+          if (!user) throw unauthorized();
+          if (route.access.farmScoped) {
+            const farmId = (params.data as { farmId?: string }).farmId;
+            farmRole = farmId ? roleOnFarm(user, farmId) : null;
+            if (!farmRole) throw notFound('Farm');
+            if (!route.access.roles.includes(farmRole)) throw forbidden();
+          } else {
+            const effective = user.isAdmin ? 'admin' : null;
+            const any = [...user.memberships.values()];
+            const allowed = route.access.roles.some((r) => r === effective || any.includes(r as never));
+            if (!allowed) throw forbidden();
+          }
+        }
+        const query = route.query ? route.query.safeParse(req.query) : { success: true as const, data: req.query };
+        if (!query.success) throw validationError(fieldErrors(query.error), 'Some query parameters are not valid.');
+        const body = route.body ? route.body.safeParse(req.body ?? {}) : { success: true as const, data: req.body };
+        if (!body.success) throw validationError(fieldErrors(body.error));
+        const result = await route.handler({
+          params: params.data,
+          query: query.data,
+          body: body.data,
+          user,
+          farmRole,
+          req,
+          res,
+        });
+        if (route.kind === 'raw') return;
+        if (result?.headers) for (const [k, v] of Object.entries(result.headers)) res.setHeader(k, v);
+        const status = result?.status ?? (result?.body === undefined ? 204 : 200);
+        if (result?.body === undefined) res.status(status).end();
+        else res.status(status).json(result.body);
+      } catch (err) {
+        next(err);
+      }
+    };
+    router[route.method](route.path, ...(route.before ?? []), handler);
+  }
+  return router;
+}

@@ -1,0 +1,41 @@
+import 'reflect-metadata';
+import { createServer } from 'node:http';
+import { createApp } from './app';
+import { env } from './config/env';
+import { createServices } from './container';
+import { createDataSource } from './db/data-source';
+import { startBroker } from './ingest/broker';
+import { createLogger } from './lib/logger';
+import { createSmtpMailer } from './lib/mailer';
+import { createRedis } from './lib/redis';
+import { createShutdown } from './lib/shutdown';
+import { HealthService } from './modules/health/health.service';
+import { createQueues } from './queues';
+
+const config = env();
+const logger = createLogger({ level: config.LOG_LEVEL, name: 'server' });
+const shutdown = createShutdown(logger);
+
+const ds = createDataSource(config.DATABASE_URL, { poolSize: 20 });
+await ds.initialize();
+shutdown.add('database', () => ds.destroy());
+
+const redis = createRedis(config.REDIS_URL, 'gillwise-server');
+shutdown.add('redis', () => redis.quit());
+const queues = createQueues(redis, config.QUEUE_PREFIX);
+shutdown.add('queues', () => queues.close());
+const mailer = createSmtpMailer({ host: config.SMTP_HOST, port: config.SMTP_PORT, from: config.MAIL_FROM });
+shutdown.add('mailer', () => mailer.close());
+
+const services = createServices({ config, ds, redis, queues, mailer, logger });
+const broker = await startBroker({ config, ds, queues, services, logger: logger.child({ component: 'ingest' }) });
+shutdown.add('broker', () => broker.close());
+
+const health = new HealthService(ds, redis, config.QUEUE_PREFIX, () => broker.status());
+const { app } = createApp({ config, logger, services, health });
+const server = createServer(app);
+server.listen(config.HTTP_PORT, config.HTTP_HOST, () => {
+  logger.info({ url: `http://${config.HTTP_HOST}:${config.HTTP_PORT}`, mqttPort: config.MQTT_PORT }, 'Gillwise server listening');
+});
+// Stop taking HTTP first (registered last, runs first), then the broker, queues, Redis and the database.
+shutdown.add('http', () => new Promise<void>((done) => { server.close(() => done()); server.closeAllConnections(); }));

@@ -1,0 +1,89 @@
+import type { ReadingRow } from './reading-handler';
+
+type Pending = { rows: ReadingRow[]; resolve: () => void; reject: (err: unknown) => void };
+
+export type BatchWriterOptions = {
+  maxRows: number;
+  flushMs: number;
+  /** Flushes that may be in flight at once (each uses one database connection). */
+  concurrency: number;
+  insert: (rows: ReadingRow[]) => Promise<number>;
+  /** Called after a batch is durable, with every row it carried. */
+  onDurable?: (rows: ReadingRow[], inserted: number) => void;
+};
+
+/**
+ * Collects rows from many messages and writes them in batches. Each caller's promise settles only when
+ * the batch holding its rows is committed, so the broker can acknowledge a QoS 1 message only once its
+ * readings are durable; if the write fails, every message in the batch is refused and will be re-sent.
+ */
+export class BatchWriter {
+  private queue: Pending[] = [];
+  private queuedRows = 0;
+  private timer: NodeJS.Timeout | null = null;
+  private inFlight = 0;
+  private closed = false;
+  readonly stats = { batches: 0, rows: 0, inserted: 0, failures: 0 };
+
+  constructor(private readonly options: BatchWriterOptions) {}
+
+  write(rows: ReadingRow[]): Promise<void> {
+    if (this.closed) return Promise.reject(new Error('ingest is shutting down'));
+    if (!rows.length) return Promise.resolve();
+    return new Promise<void>((resolve, reject) => {
+      this.queue.push({ rows, resolve, reject });
+      this.queuedRows += rows.length;
+      if (this.queuedRows >= this.options.maxRows) this.kick();
+      else this.timer ??= setTimeout(() => this.kick(), this.options.flushMs);
+    });
+  }
+
+  private kick(): void {
+    if (this.timer) {
+      clearTimeout(this.timer);
+      this.timer = null;
+    }
+    while (this.queue.length && this.inFlight < this.options.concurrency) {
+      const take: Pending[] = [];
+      let count = 0;
+      while (this.queue.length && count < this.options.maxRows) {
+        const next = this.queue.shift();
+        if (!next) break;
+        take.push(next);
+        count += next.rows.length;
+      }
+      this.queuedRows -= count;
+      void this.flush(take);
+    }
+    if (this.queue.length && !this.timer) this.timer = setTimeout(() => this.kick(), this.options.flushMs);
+  }
+
+  private async flush(batch: Pending[]): Promise<void> {
+    this.inFlight++;
+    const rows = batch.flatMap((p) => p.rows);
+    try {
+      const inserted = await this.options.insert(rows);
+      this.stats.batches++;
+      this.stats.rows += rows.length;
+      this.stats.inserted += inserted;
+      for (const p of batch) p.resolve();
+      this.options.onDurable?.(rows, inserted);
+    } catch (err) {
+      this.stats.failures++;
+      for (const p of batch) p.reject(err);
+    } finally {
+      this.inFlight--;
+      if (this.queue.length) this.kick();
+    }
+  }
+
+  /** Writes what is queued, then refuses new rows. */
+  async close(): Promise<void> {
+    this.closed = true;
+    this.kick();
+    while (this.inFlight > 0 || this.queue.length) {
+      await new Promise((r) => setTimeout(r, 10));
+      this.kick();
+    }
+  }
+}

@@ -1,0 +1,212 @@
+import { createServer, type Server } from 'node:net';
+import { Aedes, type AedesOptions } from 'aedes';
+import type { DataSource } from 'typeorm';
+import { parseTopic } from '../../shared/mqtt/topics';
+import type { Env } from '../config/env';
+import type { Services } from '../container';
+import { Probe } from '../db/entities';
+import type { Logger } from '../lib/logger';
+import { ReadingsRepository } from '../modules/readings/readings.repository';
+import { verifyProbeSecret } from '../modules/probes/probe-secrets';
+import type { Queues } from '../queues';
+import { BatchWriter } from './batch-writer';
+import { ReadingHandler, type ProbeIdentity, type ReadingRow, type Reject } from './reading-handler';
+
+type Client = Parameters<NonNullable<AedesOptions['authenticate']>>[0];
+
+export type BrokerHandle = {
+  port: number;
+  status(): { status: 'ok' | 'down'; detail?: string };
+  /** Disconnects a probe at once (credential rotated or probe removed). */
+  disconnectProbe(probeKey: string): void;
+  counters(): IngestCounters;
+  close(): Promise<void>;
+};
+
+export type IngestCounters = {
+  messages: number;
+  readingsStored: number;
+  readingsDuplicate: number;
+  rejects: Record<string, number>;
+  refusedConnections: number;
+  refusedTopics: number;
+  writeFailures: number;
+};
+
+export type BrokerDeps = {
+  config: Pick<Env, 'MQTT_HOST' | 'MQTT_PORT' | 'INGEST_BATCH_MAX' | 'INGEST_FLUSH_MS'>;
+  ds: DataSource;
+  queues: Queues;
+  services?: Services;
+  logger: Logger;
+};
+
+/** The MQTT broker embedded in the server: per-probe credentials, a topic ACL, validated durable ingest. */
+export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
+  const { ds, queues, logger } = deps;
+  const readings = new ReadingsRepository(ds);
+  const handler = new ReadingHandler();
+  const identities = new WeakMap<Client, ProbeIdentity>();
+  const clientsByKey = new Map<string, Client>();
+  const probeUnits = new Map<string, { farmId: string; unitId: string | null }>();
+  const counters: IngestCounters = {
+    messages: 0,
+    readingsStored: 0,
+    readingsDuplicate: 0,
+    rejects: {},
+    refusedConnections: 0,
+    refusedTopics: 0,
+    writeFailures: 0,
+  };
+  // Rejects are counted in memory and folded into probe_rejects every few seconds.
+  const pendingRejects = new Map<string, { probeKey: string; reason: string; count: number; lastDetail: string }>();
+  const seen = new Map<string, { at: Date; batteryPct?: number; rssiDbm?: number }>();
+
+  const countRejects = (probeKey: string, rejects: Reject[]) => {
+    for (const r of rejects) {
+      counters.rejects[r.reason] = (counters.rejects[r.reason] ?? 0) + 1;
+      const key = `${probeKey}|${r.reason}`;
+      const cur = pendingRejects.get(key) ?? { probeKey, reason: r.reason, count: 0, lastDetail: '' };
+      cur.count++;
+      cur.lastDetail = r.detail;
+      pendingRejects.set(key, cur);
+    }
+    if (rejects.length) logger.debug({ probeKey, rejects: rejects.slice(0, 3) }, 'payload rejected');
+  };
+
+  const queueEvaluations = (rows: ReadingRow[]) => {
+    const units = new Map<string, string>();
+    for (const r of rows) {
+      const u = probeUnits.get(r.probeId);
+      if (u?.unitId) units.set(u.unitId, u.farmId);
+    }
+    for (const [unitId, farmId] of units) {
+      // One pending evaluation per unit; a request made while one runs is kept and runs after it.
+      queues
+        .add('evaluateUnit', { farmId, unitId, reason: 'readings' }, { deduplication: { id: `unit:${unitId}`, keepLastIfActive: true } })
+        .catch((err: unknown) => logger.warn({ err, unitId }, 'could not queue unit evaluation'));
+    }
+  };
+
+  const writer = new BatchWriter({
+    maxRows: deps.config.INGEST_BATCH_MAX,
+    flushMs: deps.config.INGEST_FLUSH_MS,
+    concurrency: 3,
+    insert: (rows) => readings.insertBatch(rows),
+    onDurable: (rows, inserted) => {
+      counters.readingsStored += inserted;
+      counters.readingsDuplicate += rows.length - inserted;
+      queueEvaluations(rows);
+    },
+  });
+
+  const flushSide = async () => {
+    const rejects = [...pendingRejects.values()];
+    pendingRejects.clear();
+    const touched = new Map(seen);
+    seen.clear();
+    try {
+      await readings.addRejects(rejects);
+      await readings.touchProbes(touched);
+    } catch (err) {
+      for (const r of rejects) pendingRejects.set(`${r.probeKey}|${r.reason}`, r);
+      for (const [k, v] of touched) if (!seen.has(k)) seen.set(k, v);
+      logger.warn({ err }, 'could not store probe health counters; will retry');
+    }
+  };
+  const sideTimer = setInterval(() => void flushSide(), 2000);
+
+  const broker = await Aedes.createBroker({
+    concurrency: 1000,
+    heartbeatInterval: 60_000,
+    authenticate: (client, username, password, done) => {
+      const refuse = () => {
+        counters.refusedConnections++;
+        logger.warn({ username, clientId: client.id }, 'MQTT connection refused: bad credentials');
+        done(Object.assign(new Error('Bad username or password'), { returnCode: 4 as const }), null);
+      };
+      if (!username || !password) return refuse();
+      ds.getRepository(Probe)
+        .findOneBy({ probeKey: username, active: true })
+        .then((probe) => {
+          if (!probe || !verifyProbeSecret(password.toString('utf8'), probe.secretHash)) return refuse();
+          identities.set(client, { probeId: probe.id, probeKey: probe.probeKey, farmId: probe.farmId, unitId: probe.unitId });
+          probeUnits.set(probe.id, { farmId: probe.farmId, unitId: probe.unitId });
+          clientsByKey.set(probe.probeKey, client);
+          done(null, true);
+        })
+        .catch((err: unknown) => {
+          logger.error({ err }, 'MQTT authentication lookup failed');
+          done(Object.assign(new Error('Server unavailable'), { returnCode: 3 as const }), null);
+        });
+    },
+    authorizeSubscribe: (client, sub, callback) => {
+      // Probes only publish; no subscription is granted (the SUBACK carries a failure code).
+      logger.warn({ clientId: client.id, topic: sub.topic }, 'MQTT subscription refused');
+      counters.refusedTopics++;
+      callback(null, null);
+    },
+    authorizePublish: (client, packet, callback) => {
+      const identity = client ? identities.get(client) : undefined;
+      const topic = parseTopic(packet.topic);
+      if (!identity || !topic || topic.probeKey !== identity.probeKey) {
+        counters.refusedTopics++;
+        logger.warn({ clientId: client?.id, topic: packet.topic }, 'MQTT publish refused: not this probe’s topic');
+        // MQTT 3.1.1 has no negative PUBACK: refusing closes the connection.
+        return callback(new Error('topic not allowed'));
+      }
+      packet.retain = false;
+      counters.messages++;
+      const { rows, rejects, payload } = handler.handle(identity, packet.payload as Buffer);
+      countRejects(identity.probeKey, rejects);
+      seen.set(identity.probeId, {
+        at: new Date(),
+        ...(payload?.batteryPct !== undefined ? { batteryPct: payload.batteryPct } : {}),
+        ...(payload?.rssiDbm !== undefined ? { rssiDbm: payload.rssiDbm } : {}),
+      });
+      // A malformed payload is acknowledged without storing, or the probe would replay it forever.
+      if (!rows.length) return callback(null);
+      // Acknowledge only once the readings are durable; on a failed write refuse, and the probe re-sends.
+      writer.write(rows).then(
+        () => callback(null),
+        (err: unknown) => {
+          counters.writeFailures++;
+          logger.error({ err: err instanceof Error ? err.message : err, probeKey: identity.probeKey }, 'readings not stored; refusing message');
+          callback(new Error('storage unavailable'));
+        },
+      );
+    },
+  });
+  broker.on('clientDisconnect', (client) => {
+    const id = identities.get(client);
+    if (id && clientsByKey.get(id.probeKey) === client) clientsByKey.delete(id.probeKey);
+  });
+
+  const server: Server = createServer(broker.handle);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(deps.config.MQTT_PORT, deps.config.MQTT_HOST, () => resolve());
+  });
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : deps.config.MQTT_PORT;
+  logger.info({ port }, 'MQTT broker listening');
+
+  return {
+    port,
+    status: () => (server.listening && !broker.closed ? { status: 'ok', detail: `${broker.connectedClients} probe(s) connected` } : { status: 'down' }),
+    disconnectProbe(probeKey) {
+      const client = clientsByKey.get(probeKey);
+      clientsByKey.delete(probeKey);
+      client?.close();
+    },
+    counters: () => structuredClone(counters),
+    async close() {
+      clearInterval(sideTimer);
+      // Close the broker first: it ends every client connection, which lets the listener close.
+      await new Promise<void>((resolve) => broker.close(() => resolve()));
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await writer.close().catch(() => undefined);
+      await flushSide();
+    },
+  };
+}
