@@ -79,6 +79,8 @@ export const probeCredentialFileSchema = z.object({
       quantities: z.array(quantitySchema),
       intervalSeconds: z.number().int().positive(),
       scenario: z.string().default('steady'),
+      /** Unit the probe reports water temperature in (some demo probes use °F to exercise normalisation). */
+      temperatureUnit: z.enum(['C', 'F']).optional(),
     }),
   ),
 });

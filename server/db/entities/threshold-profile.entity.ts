@@ -7,6 +7,8 @@ export type ThresholdRule = {
   /** What the numbers are in, e.g. 'mg/L NH3', 'mg/L NH3-N', 'mg/L TAN', '°C', 'L/min'. */
   basis: string;
   source: string;
+  /** Salinity-dependent limits (e.g. shrimp), interpolated linearly at the unit's salinity. */
+  bySalinity?: Array<{ salinityPpt: number; act: number; watch?: number }>;
 };
 
 @Entity({ name: 'threshold_profiles' })
