@@ -1,0 +1,48 @@
+import { useState, type ComponentType } from 'react';
+import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router';
+import { paths } from '@/config/paths';
+import { BootFallback, RootLayout, RouteError } from './root-layout';
+
+type RouteModule = { default: ComponentType };
+
+/** Route modules default-export their component; each becomes its own chunk. */
+export function lazyRoute(load: () => Promise<RouteModule>): () => Promise<{ Component: ComponentType }> {
+  return async () => ({ Component: (await load()).default });
+}
+
+/**
+ * Screens under /farms/:farmId. To add one:
+ *   1. src/app/routes/<screen>.tsx with a default export (it composes the feature's components);
+ *   2. a line here: { path: farmScreens.<key>, lazy: lazyRoute(() => import('./routes/<screen>')) };
+ *   3. `ready: true` on its entry in src/app/nav.ts — the menus pick it up from there.
+ */
+export const farmRoutes: RouteObject[] = [
+  { index: true, lazy: lazyRoute(() => import('./routes/farm-home')) },
+  { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
+];
+
+export const appRoutes: RouteObject[] = [
+  {
+    id: 'root',
+    Component: RootLayout,
+    ErrorBoundary: RouteError,
+    HydrateFallback: BootFallback,
+    children: [
+      { index: true, lazy: lazyRoute(() => import('./routes/index-redirect')) },
+      { path: paths.signIn, lazy: lazyRoute(() => import('./routes/sign-in')) },
+      { path: paths.forgotPassword, lazy: lazyRoute(() => import('./routes/forgot-password')) },
+      { path: paths.resetPassword, lazy: lazyRoute(() => import('./routes/reset-password')) },
+      { path: paths.farm, lazy: lazyRoute(() => import('./routes/farm-shell')), children: farmRoutes },
+      { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(appRoutes);
+}
+
+export function AppRouter() {
+  const [router] = useState(createAppRouter);
+  return <RouterProvider router={router} />;
+}

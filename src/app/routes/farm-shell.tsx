@@ -1,0 +1,5 @@
+import { AppShell } from '../shell/app-shell';
+
+export default function FarmShellRoute() {
+  return <AppShell />;
+}
