@@ -16,6 +16,7 @@ import { allRoutes } from './http/routes';
 import { defineRoute, publicAccess, type RouteDef } from './http/route-registry';
 import type { Logger } from './lib/logger';
 import type { HealthService } from './modules/health/health.service';
+import type { BrokerHandle } from './ingest/broker';
 
 export type AppDeps = {
   config: Env;
@@ -26,6 +27,8 @@ export type AppDeps = {
   authLimits?: { perIp: number; perEmail: number; windowMs: number };
   /** Serve the built client from this folder (production); absent in API-only tests. */
   clientDir?: string | null;
+  /** The embedded MQTT broker, when this process runs one (probe disconnects, ingest counters). */
+  broker?: BrokerHandle;
 };
 
 export type AppHandle = { app: Express; routes: RouteDef[] };

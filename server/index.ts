@@ -32,7 +32,7 @@ const broker = await startBroker({ config, ds, queues, services, logger: logger.
 shutdown.add('broker', () => broker.close());
 
 const health = new HealthService(ds, redis, config.QUEUE_PREFIX, () => broker.status());
-const { app } = createApp({ config, logger, services, health });
+const { app } = createApp({ config, logger, services, health, broker });
 const server = createServer(app);
 server.listen(config.HTTP_PORT, config.HTTP_HOST, () => {
   logger.info({ url: `http://${config.HTTP_HOST}:${config.HTTP_PORT}`, mqttPort: config.MQTT_PORT }, 'Gillwise server listening');

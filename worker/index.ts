@@ -12,6 +12,7 @@ import { createShutdown } from '../server/lib/shutdown';
 import { WORKER_HEARTBEAT_TTL_SECONDS, workerHeartbeatKey } from '../server/modules/health/health.service';
 import { createQueues } from '../server/queues';
 import { createProcessors } from './processors';
+import './processors/register';
 
 const config = env();
 const logger = createLogger({ level: config.LOG_LEVEL, name: 'worker' });

@@ -1,0 +1,1 @@
+// Importing this module registers every job processor (one file per job).
