@@ -1,0 +1,31 @@
+// npm test: make sure the machine has what the tests need (PostgreSQL, Redis, Chromium, the
+// mosquitto clients, node_modules), then `vitest run` with any extra arguments; exits with its code.
+// The tests start their own throwaway PostgreSQL and Redis on free ports (tests/setup), so this
+// runs fine next to `npm start`.
+import { spawn } from 'node:child_process';
+import path from 'node:path';
+import { repoRoot } from './stack/common.mjs';
+import { ensureSystem } from './stack/ensure-system.mjs';
+
+try {
+  await ensureSystem({ chromium: true, mosquitto: true });
+} catch (err) {
+  console.error(`[system] ${err.message}`);
+  process.exit(err.exitCode ?? 1);
+}
+
+const vitest = spawn(process.execPath, [path.join(repoRoot, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...process.argv.slice(2)], {
+  cwd: repoRoot,
+  stdio: 'inherit',
+});
+// Ctrl-C reaches vitest directly (same process group); just do not die before it has cleaned up.
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) {
+  process.on(signal, () => {
+    if (signal !== 'SIGINT') vitest.kill(signal);
+  });
+}
+vitest.on('error', (err) => {
+  console.error(`could not run vitest: ${err.message}`);
+  process.exit(1);
+});
+vitest.on('exit', (code, signal) => process.exit(code ?? (signal ? 1 : 0)));
