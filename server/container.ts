@@ -8,6 +8,10 @@ import { AuthService } from './modules/auth/auth.service';
 import { NotificationsRepository } from './modules/notifications/notifications.repository';
 import { emailChannel, NotificationsService } from './modules/notifications/notifications.service';
 import type { Queues } from './queues';
+import { AuditEvent } from './db/entities';
+import { LiveService } from './modules/live/live.service';
+import { WaterTestsRepository } from './modules/water-tests/water-tests.repository';
+import { WaterTestsService, type AuditSink } from './modules/water-tests/water-tests.service';
 
 export type CoreDeps = {
   config: Env;
@@ -27,7 +31,13 @@ export function createServices(deps: CoreDeps) {
     { jwtSecret: deps.config.JWT_SECRET, jwtTtlSeconds: deps.config.JWT_TTL_SECONDS, publicUrl: deps.config.PUBLIC_URL },
     deps.logger,
   );
-  return { notifications, auth };
+  const live = new LiveService(deps.redis, deps.config.QUEUE_PREFIX, deps.logger);
+  // Interim audit sink until the audit module's service is wired in.
+  const auditSink: AuditSink = {
+    record: (e) => deps.ds.getRepository(AuditEvent).save(deps.ds.getRepository(AuditEvent).create({ ...e, at: new Date() })),
+  };
+  const waterTests = new WaterTestsService(new WaterTestsRepository(deps.ds), deps.queues, live, auditSink, deps.logger);
+  return { notifications, auth, live, waterTests };
 }
 
 export type Services = ReturnType<typeof createServices>;

@@ -1,11 +1,18 @@
 import type { AppDeps } from '../app';
 import { authRoutes } from '../modules/auth/auth.router';
 import { healthRoutes } from '../modules/health/health.router';
+import { liveRoutes } from '../modules/live/live.router';
+import { waterTestRoutes } from '../modules/water-tests/water-tests.router';
 import type { CookieOptions } from './build-router';
 import type { RouteDef } from './route-registry';
 
 /** The route registry: every API route, declared once. It builds the router, OpenAPI and the route × role test. */
 export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
   const { services } = deps;
-  return [...healthRoutes(deps.health), ...authRoutes(services.auth, cookie, deps.authLimits)];
+  return [
+    ...healthRoutes(deps.health),
+    ...authRoutes(services.auth, cookie, deps.authLimits),
+    ...liveRoutes(services.live),
+    ...waterTestRoutes(services.waterTests),
+  ];
 }

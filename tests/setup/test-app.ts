@@ -6,7 +6,7 @@ import { createServer, type Server } from 'node:http';
 import { Worker } from 'bullmq';
 import type { Redis } from 'ioredis';
 import type { DataSource } from 'typeorm';
-import { queueNames } from '../../shared/schemas/jobs.schema';
+import { queueNames, type QueueName } from '../../shared/schemas/jobs.schema';
 import { createApp } from '../../server/app';
 import { parseEnv, type Env } from '../../server/config/env';
 import { createServices, type Services } from '../../server/container';
@@ -34,7 +34,7 @@ export type TestApp = {
   broker: BrokerHandle | null;
   baseUrl: string | null;
   /** Resolves when every queue is drained (waiting, active and delayed all empty). */
-  drain(timeoutMs?: number): Promise<void>;
+  drain(options?: { timeoutMs?: number; queues?: QueueName[] }): Promise<void>;
   close(): Promise<void>;
 };
 
@@ -104,11 +104,11 @@ export async function startTestApp(options: TestAppOptions = {}): Promise<TestAp
     routes,
     broker,
     baseUrl,
-    async drain(timeoutMs = 15_000) {
+    async drain({ timeoutMs = 15_000, queues: names = [...queueNames] }: { timeoutMs?: number; queues?: QueueName[] } = {}) {
       const deadline = Date.now() + timeoutMs;
       for (;;) {
         let busy = 0;
-        for (const name of queueNames) {
+        for (const name of names) {
           const c = await queues.queue(name).getJobCounts('waiting', 'active', 'delayed', 'prioritized', 'waiting-children');
           busy += Object.values(c).reduce((a, b) => a + b, 0);
         }
