@@ -12,6 +12,12 @@ import { AuditEvent } from './db/entities';
 import { LiveService } from './modules/live/live.service';
 import { WaterTestsRepository } from './modules/water-tests/water-tests.repository';
 import { WaterTestsService, type AuditSink } from './modules/water-tests/water-tests.service';
+import { TreatmentsRepository } from './modules/treatments/treatments.repository';
+import { TreatmentsService } from './modules/treatments/treatments.service';
+import { ObservationsRepository } from './modules/observations/observations.repository';
+import { ObservationsService } from './modules/observations/observations.service';
+import { TasksRepository } from './modules/tasks/tasks.repository';
+import { TasksService } from './modules/tasks/tasks.service';
 
 export type CoreDeps = {
   config: Env;
@@ -37,7 +43,10 @@ export function createServices(deps: CoreDeps) {
     record: (e) => deps.ds.getRepository(AuditEvent).save(deps.ds.getRepository(AuditEvent).create({ ...e, at: new Date() })),
   };
   const waterTests = new WaterTestsService(new WaterTestsRepository(deps.ds), deps.queues, live, auditSink, deps.logger);
-  return { notifications, auth, live, waterTests };
+  const treatments = new TreatmentsService(new TreatmentsRepository(deps.ds), deps.queues, auditSink);
+  const observations = new ObservationsService(new ObservationsRepository(deps.ds), deps.queues, live);
+  const tasks = new TasksService(new TasksRepository(deps.ds));
+  return { notifications, auth, live, waterTests, treatments, observations, tasks };
 }
 
 export type Services = ReturnType<typeof createServices>;

@@ -3,6 +3,9 @@ import { authRoutes } from '../modules/auth/auth.router';
 import { healthRoutes } from '../modules/health/health.router';
 import { liveRoutes } from '../modules/live/live.router';
 import { waterTestRoutes } from '../modules/water-tests/water-tests.router';
+import { treatmentRoutes } from '../modules/treatments/treatments.router';
+import { observationRoutes } from '../modules/observations/observations.router';
+import { taskRoutes } from '../modules/tasks/tasks.router';
 import type { CookieOptions } from './build-router';
 import type { RouteDef } from './route-registry';
 
@@ -14,5 +17,8 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...authRoutes(services.auth, cookie, deps.authLimits),
     ...liveRoutes(services.live),
     ...waterTestRoutes(services.waterTests),
+    ...treatmentRoutes(services.treatments),
+    ...observationRoutes(services.observations),
+    ...taskRoutes(services.tasks),
   ];
 }
