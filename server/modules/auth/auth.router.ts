@@ -89,6 +89,7 @@ export function authRoutes(auth: AuthService, cookie: CookieOptions, limits = { 
       tags: ['auth'],
       access: sessionAccess,
       response: meResponseSchema,
+      example: () => ({}),
       handler: async ({ user }) => {
         if (!user) throw unauthorized();
         return { body: await auth.me(user.id) };
