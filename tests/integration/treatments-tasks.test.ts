@@ -70,7 +70,6 @@ describe("the hand's test list", () => {
     const now = new Date();
     const today = localDay(now, tz);
     const p1 = seed.units['harrow-bend:P1']!;
-    const p5 = seed.units['harrow-bend:P5']!;
     const p4 = seed.units['harrow-bend:P4']!;
     await t.ds.getRepository(CultureUnit).update({ id: p4 }, { state: 'fallow' });
     // P1: last tested 8 local days ago at 23:30 (a time that is already the next day in UTC) → 1 day overdue.
