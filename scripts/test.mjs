@@ -14,6 +14,25 @@ try {
   process.exit(err.exitCode ?? 1);
 }
 
+// Static checks first: a type error or a broken import boundary fails the run like a failing test.
+// GILLWISE_SKIP_STATIC=1 skips them (for quick local runs of a single file).
+import { spawnSync } from 'node:child_process';
+if (process.env.GILLWISE_SKIP_STATIC !== '1') {
+  const bin = (name) => path.join(repoRoot, 'node_modules', '.bin', name);
+  for (const [label, cmd, args] of [
+    ['typecheck (server, worker, shared, simulator, tests)', bin('tsc'), ['-p', 'tsconfig.json']],
+    ['typecheck (client)', bin('tsc'), ['-p', 'tsconfig.app.json']],
+    ['lint', bin('eslint'), ['.']],
+  ]) {
+    console.log(`[test] ${label}`);
+    const r = spawnSync(cmd, args, { cwd: repoRoot, stdio: 'inherit' });
+    if (r.status !== 0) {
+      console.error(`[test] ${label} failed`);
+      process.exit(r.status ?? 1);
+    }
+  }
+}
+
 const vitest = spawn(process.execPath, [path.join(repoRoot, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...process.argv.slice(2)], {
   cwd: repoRoot,
   stdio: 'inherit',
