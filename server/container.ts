@@ -8,6 +8,19 @@ import { AuthService } from './modules/auth/auth.service';
 import { NotificationsRepository } from './modules/notifications/notifications.repository';
 import { emailChannel, NotificationsService } from './modules/notifications/notifications.service';
 import type { Queues } from './queues';
+import { AuditRepository } from './modules/audit/audit.repository';
+import { AuditService } from './modules/audit/audit.service';
+import { FarmsRepository } from './modules/farms/farms.repository';
+import { FarmsService } from './modules/farms/farms.service';
+import { UnitsRepository } from './modules/units/units.repository';
+import { UnitsService } from './modules/units/units.service';
+import { ReadingsRepository } from './modules/readings/readings.repository';
+import { ReadingsService } from './modules/readings/readings.service';
+import { ProbesRepository } from './modules/probes/probes.repository';
+import { ProbesService } from './modules/probes/probes.service';
+import { ProbeHealthRepository } from './modules/probes/probe-health.repository';
+import { ProbeHealthService } from './modules/probes/probe-health.service';
+import { ProbeCredentialFileStore } from './modules/probes/probe-credential-file';
 import { AuditEvent } from './db/entities';
 import { LiveService } from './modules/live/live.service';
 import { WaterTestsRepository } from './modules/water-tests/water-tests.repository';
@@ -37,6 +50,14 @@ export function createServices(deps: CoreDeps) {
     { jwtSecret: deps.config.JWT_SECRET, jwtTtlSeconds: deps.config.JWT_TTL_SECONDS, publicUrl: deps.config.PUBLIC_URL },
     deps.logger,
   );
+  const audit = new AuditService(new AuditRepository(deps.ds));
+  const readings = new ReadingsService(new ReadingsRepository(deps.ds));
+  const units = new UnitsService(new UnitsRepository(deps.ds), audit, readings, { publicUrl: deps.config.PUBLIC_URL });
+  const farms = new FarmsService(new FarmsRepository(deps.ds), audit, units, readings);
+  const probesRepository = new ProbesRepository(deps.ds);
+  const probeHealth = new ProbeHealthService(probesRepository, new ProbeHealthRepository(deps.ds), farms);
+  const credentialFile = deps.config.PROBE_CREDENTIALS_FILE ? new ProbeCredentialFileStore(deps.config.PROBE_CREDENTIALS_FILE, `mqtt://${deps.config.MQTT_HOST}:${deps.config.MQTT_PORT}`) : null;
+  const probes = new ProbesService(probesRepository, probeHealth, audit, farms, units, credentialFile, deps.logger);
   const live = new LiveService(deps.redis, deps.config.QUEUE_PREFIX, deps.logger);
   // Interim audit sink until the audit module's service is wired in.
   const auditSink: AuditSink = {
@@ -46,7 +67,7 @@ export function createServices(deps: CoreDeps) {
   const treatments = new TreatmentsService(new TreatmentsRepository(deps.ds), deps.queues, auditSink);
   const observations = new ObservationsService(new ObservationsRepository(deps.ds), deps.queues, live);
   const tasks = new TasksService(new TasksRepository(deps.ds));
-  return { notifications, auth, live, waterTests, treatments, observations, tasks };
+  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes };
 }
 
 export type Services = ReturnType<typeof createServices>;

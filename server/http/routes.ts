@@ -6,6 +6,11 @@ import { waterTestRoutes } from '../modules/water-tests/water-tests.router';
 import { treatmentRoutes } from '../modules/treatments/treatments.router';
 import { observationRoutes } from '../modules/observations/observations.router';
 import { taskRoutes } from '../modules/tasks/tasks.router';
+import { auditRoutes } from '../modules/audit/audit.router';
+import { farmsRoutes } from '../modules/farms/farms.router';
+import { unitsRoutes } from '../modules/units/units.router';
+import { probesRoutes } from '../modules/probes/probes.router';
+import { readingsRoutes } from '../modules/readings/readings.router';
 import type { CookieOptions } from './build-router';
 import type { RouteDef } from './route-registry';
 
@@ -20,5 +25,10 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...treatmentRoutes(services.treatments),
     ...observationRoutes(services.observations),
     ...taskRoutes(services.tasks),
+    ...farmsRoutes(services.farms),
+    ...unitsRoutes(services.units),
+    ...probesRoutes(services.probes, deps.broker),
+    ...readingsRoutes(services.readings),
+    ...auditRoutes(services.audit),
   ];
 }

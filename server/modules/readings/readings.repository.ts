@@ -1,5 +1,11 @@
 import type { DataSource } from 'typeorm';
+import type { ReadingQuality } from '../../db/entities';
 import type { ReadingRow } from '../../ingest/reading-handler';
+
+export type BucketRow = { t: Date; avg: number; min: number; max: number; n: number; suspect: number };
+export type LatestReadingRow = { probeId: string; unitId: string; quantity: string; at: Date; value: number; quality: ReadingQuality };
+
+const EPOCH = '1970-01-01T00:00:00Z';
 
 export class ReadingsRepository {
   constructor(private readonly ds: DataSource) {}
@@ -56,5 +62,98 @@ export class ReadingsRepository {
        DO UPDATE SET count = probe_rejects.count + EXCLUDED.count, last_at = now(), last_detail = EXCLUDED.last_detail`,
       [counts.map((c) => c.probeKey), counts.map((c) => c.reason), counts.map((c) => c.count), counts.map((c) => c.lastDetail)],
     );
+  }
+
+  // --- read side: every query below is a range or top-1 lookup on pk_readings (probe_id, quantity, at) ---
+
+  /** The probes currently attached to a unit of this farm; null when the unit is not on the farm. */
+  async unitProbes(farmId: string, unitId: string): Promise<Array<{ id: string; quantities: string[] }> | null> {
+    const rows = (await this.ds.query(
+      `SELECT p.id, p.quantities FROM culture_units u LEFT JOIN probes p ON p.unit_id = u.id
+       WHERE u.id = $1 AND u.farm_id = $2 ORDER BY p.created_at`,
+      [unitId, farmId],
+    )) as Array<{ id: string | null; quantities: string[] | null }>;
+    if (!rows.length) return null;
+    return rows
+      .filter((r): r is { id: string; quantities: string[] } => r.id !== null)
+      .map((r) => ({ id: r.id, quantities: r.quantities ?? [] }));
+  }
+
+  /** min(count, cap): counting stops at `cap`, so deciding "raw or buckets" costs the same for any range. */
+  async countUpTo(probeIds: string[], quantity: string, from: Date, to: Date, cap: number): Promise<number> {
+    const rows = (await this.ds.query(
+      `SELECT count(*)::int AS n FROM (
+         SELECT 1 FROM readings WHERE probe_id = ANY($1::uuid[]) AND quantity = $2 AND at >= $3 AND at < $4 LIMIT $5
+       ) capped`,
+      [probeIds, quantity, from, to, cap],
+    )) as Array<{ n: number }>;
+    return rows[0]?.n ?? 0;
+  }
+
+  /** Raw readings (one point per instant; two probes at the same instant are averaged). */
+  async rawPoints(probeIds: string[], quantity: string, from: Date, to: Date): Promise<BucketRow[]> {
+    return this.points(`at`, probeIds, quantity, from, to, []);
+  }
+
+  /** Readings averaged into buckets of `bucketSeconds`, aligned to the Unix epoch (date_bin), in SQL. */
+  async bucketPoints(probeIds: string[], quantity: string, from: Date, to: Date, bucketSeconds: number): Promise<BucketRow[]> {
+    return this.points(`date_bin(make_interval(secs => $5), at, $6::timestamptz)`, probeIds, quantity, from, to, [bucketSeconds, EPOCH]);
+  }
+
+  private async points(bucket: string, probeIds: string[], quantity: string, from: Date, to: Date, extra: unknown[]): Promise<BucketRow[]> {
+    const rows = (await this.ds.query(
+      `SELECT ${bucket} AS t, avg(value) AS avg, min(value) AS min, max(value) AS max, count(*)::int AS n,
+              (count(*) FILTER (WHERE quality <> 'good'))::int AS suspect
+       FROM readings
+       WHERE probe_id = ANY($1::uuid[]) AND quantity = $2 AND at >= $3 AND at < $4
+       GROUP BY 1 ORDER BY 1`,
+      [probeIds, quantity, from, to, ...extra],
+    )) as BucketRow[];
+    return rows;
+  }
+
+  /**
+   * Newest reading per (active probe, quantity) for every unit of a farm: one top-1 backward index
+   * lookup per pair, so the cost depends on the number of probes, not on how much history is stored.
+   */
+  async latestForFarm(farmId: string, quantities: readonly string[]): Promise<LatestReadingRow[]> {
+    const rows = (await this.ds.query(
+      `SELECT p.id AS probe_id, p.unit_id, q.quantity, r.at, r.value, r.quality
+       FROM probes p
+       CROSS JOIN unnest($2::text[]) AS q(quantity)
+       CROSS JOIN LATERAL (
+         SELECT at, value, quality FROM readings
+         WHERE probe_id = p.id AND quantity = q.quantity
+         ORDER BY at DESC LIMIT 1
+       ) r
+       WHERE p.farm_id = $1 AND p.unit_id IS NOT NULL AND p.active`,
+      [farmId, quantities],
+    )) as Array<{ probe_id: string; unit_id: string; quantity: string; at: Date; value: number; quality: ReadingQuality }>;
+    return rows.map((r) => ({
+      probeId: r.probe_id,
+      unitId: r.unit_id,
+      quantity: r.quantity,
+      at: r.at,
+      value: r.value,
+      quality: r.quality,
+    }));
+  }
+
+  /** The newest usable (not 'bad') reading of one quantity among a unit's probes. */
+  async latestForUnit(unitId: string, quantity: string): Promise<{ probeId: string; at: Date; value: number } | null> {
+    const rows = (await this.ds.query(
+      `SELECT p.id AS probe_id, r.at, r.value
+       FROM probes p
+       CROSS JOIN LATERAL (
+         SELECT at, value FROM readings
+         WHERE probe_id = p.id AND quantity = $2 AND quality <> 'bad'
+         ORDER BY at DESC LIMIT 1
+       ) r
+       WHERE p.unit_id = $1
+       ORDER BY r.at DESC LIMIT 1`,
+      [unitId, quantity],
+    )) as Array<{ probe_id: string; at: Date; value: number }>;
+    const r = rows[0];
+    return r ? { probeId: r.probe_id, at: r.at, value: r.value } : null;
   }
 }
