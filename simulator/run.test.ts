@@ -146,14 +146,17 @@ describe('simulator against an in-process aedes broker', () => {
   });
 
   it('with --once, every probe connects as itself, publishes one valid message and the process exits 0', async () => {
-    const probes = [credential('pond-1'), credential('rw-1', { unitKind: 'raceway', quantities: ['flow', 'dissolved_oxygen'] })];
+    const probes = [
+      credential('pond-1'),
+      credential('rw-1', { unitKind: 'raceway', quantities: ['flow', 'dissolved_oxygen', 'water_temperature'] }),
+    ];
     const broker = await startBroker(0, new Map(probes.map((p) => [p.probeKey, p.secret])));
     cleanups.push(() => broker.close());
     const { client, received } = await subscribe(broker.url);
     cleanups.push(() => client.endAsync());
     writeCredentials(broker.url, probes);
 
-    const code = await startSimulator(config(['--once']), { log: log() }).done;
+    const code = await startSimulator(config(['--once', '--fahrenheit', 'rw-1']), { log: log() }).done;
     expect(code).toBe(0);
     await waitFor(() => received.length >= 2, 5000, 'two messages');
     expect(received.map((r) => r.probeKey).sort()).toEqual(['pond-1', 'rw-1']);
@@ -162,6 +165,33 @@ describe('simulator against an in-process aedes broker', () => {
       expect(r.payload.samples).toHaveLength(1);
     }
     expect(broker.connects.filter((k) => k !== 'listener').sort()).toEqual(['pond-1', 'rw-1']);
+    const unitOf = (key: string) =>
+      received.find((r) => r.probeKey === key)?.payload.samples[0]?.values.find((v) => v.quantity === 'water_temperature')?.unit;
+    expect(unitOf('pond-1')).toBe('C');
+    expect(unitOf('rw-1')).toBe('F');
+  });
+
+  it('during a dropout the probe goes offline, buffers, then re-sends its buffer without a gap', async () => {
+    const probes = [credential('pond-1', { scenario: 'dropout:minutes=1s,at=+0.6s,every=0' })];
+    const broker = await startBroker(0, new Map(probes.map((p) => [p.probeKey, p.secret])));
+    const { client, received } = await subscribe(broker.url);
+    writeCredentials(broker.url, probes);
+    const sim = startSimulator(config(['--interval', '0.1']), { log: log(), minBackoffMs: 100 });
+    cleanups.push(async () => {
+      await sim.stop();
+      await client.endAsync();
+      await broker.close();
+    });
+    await waitFor(() => lines.some((l) => l.includes('link down (dropout)')), 5000, 'dropout');
+    const during = received.length;
+    await new Promise((r) => setTimeout(r, 500));
+    expect(received.length).toBe(during); // silent while the link is down
+    await waitFor(() => lines.some((l) => l.includes('link back up')), 5000, 'link back');
+    await waitFor(() => received.slice(during).some((r) => r.payload.samples.length >= 5), 5000, 'backlog');
+    await new Promise((r) => setTimeout(r, 300));
+    const times = [...new Set(received.flatMap((r) => r.payload.samples.map((s) => Date.parse(s.at))))].sort((a, b) => a - b);
+    const gaps = times.slice(1).map((t, i) => t - (times[i] ?? t));
+    expect(Math.max(...gaps)).toBeLessThan(300);
   });
 
   it('with --once --backfill, sends the history in chunks of at most 200 samples', async () => {

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import type { ProbeCredentialFile } from '../../shared/schemas/mqtt.schema';
 import { DAY_MS, HOUR_MS } from './clock';
 import { farmWeatherFor, generateHistory } from './history';
 import type { UnitState } from './probe-model';
@@ -278,6 +279,28 @@ describe('generateHistory', () => {
       expect(s.values[0]?.value).toBeGreaterThan(60);
       expect(s.values[0]?.value).toBeLessThan(100);
     }
+  });
+
+  it('takes a credential-file entry as it is, as the demo seed passes it', () => {
+    const entry: ProbeCredentialFile['probes'][number] = {
+      probeKey: 'hb-s2',
+      secret: 'not-used-here',
+      farmSlug: 'harrow-bend',
+      unitCode: 'S2',
+      unitKind: 'pond',
+      waterType: 'brackish',
+      salinityPpt: 15,
+      species: 'whiteleg_shrimp',
+      quantities: ['ph', 'water_temperature', 'dissolved_oxygen', 'specific_conductance', 'aerator_running'],
+      intervalSeconds: 60,
+      scenario: 'steady',
+    };
+    const samples = generateHistory({ probe: entry, from: '2025-07-01T05:00:00Z', to: new Date('2025-07-01T06:00:00Z'), stepSeconds: 600, seed: 1, site });
+    expect(samples).toHaveLength(6);
+    expect(samples[0]?.values.map((v) => v.quantity)).toEqual(entry.quantities);
+    const sc = samples[0]?.values.find((v) => v.quantity === 'specific_conductance')?.value ?? 0;
+    expect(sc).toBeGreaterThan(22); // about 24.8 mS/cm at 15 ‰
+    expect(sc).toBeLessThan(28);
   });
 
   it('rejects a range that ends before it starts and a step that is not positive', () => {
