@@ -1,6 +1,6 @@
 import type { Role } from '@shared/schemas/auth.schema';
 import { generatePath } from 'react-router';
-import type { IconName } from '@/components/ui/icon';
+import type { IconName } from '@/components/ui/icon-paths';
 import { farmPattern, type FarmScreen } from '@/config/paths';
 
 /**

@@ -1,22 +1,20 @@
 /**
  * Test helpers for client component tests (vitest + jsdom + Testing Library).
- * Importing this file also registers cleanup after each test (vitest runs without globals here).
+ * Importing this file also registers cleanup after each test (see ./setup.ts).
  */
 import type { MeResponse } from '@shared/schemas/auth.schema';
 import { QueryClient } from '@tanstack/react-query';
-import { cleanup, render, type RenderResult } from '@testing-library/react';
+import { render, type RenderResult } from '@testing-library/react';
 import type { ReactElement } from 'react';
 import { createMemoryRouter, RouterProvider, type RouteObject } from 'react-router';
 import { afterEach, vi } from 'vitest';
 import { AppProvider } from '@/app/provider';
 import { i18n } from '@/lib/i18n';
 
-// jsdom has no scrolling; React Router's <ScrollRestoration> calls it on every navigation.
-if (typeof window !== 'undefined') window.scrollTo = () => undefined;
+// Also registered through setupFiles; importing it here keeps `vitest --environment jsdom src` working without the config.
+import './setup';
 
 afterEach(() => {
-  cleanup();
-  vi.unstubAllGlobals();
   void i18n.changeLanguage('en');
 });
 

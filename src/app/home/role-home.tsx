@@ -1,4 +1,5 @@
 import type { MeFarm, MeResponse, Role } from '@shared/schemas/auth.schema';
+import type { ReactNode } from 'react';
 import { useTranslation } from 'react-i18next';
 import { Link } from 'react-router';
 import { CautionsPanel } from '@/components/cautions';
@@ -21,6 +22,17 @@ function farmClock(timeZone: string, locale: string): string {
   }
 }
 
+function InfoRow({ label, testId, children }: { label: string; testId?: string; children: ReactNode }) {
+  return (
+    <div className="flex flex-col sm:flex-row sm:items-baseline sm:gap-6">
+      <dt className="text-sm font-bold text-muted sm:w-44 sm:shrink-0 sm:text-base">{label}</dt>
+      <dd className="text-lg" data-testid={testId}>
+        {children}
+      </dd>
+    </div>
+  );
+}
+
 /** The landing screen of a farm: who you are, where, what your role covers, and the cautions. */
 export function RoleHome({ me, farm, role }: { me: MeResponse; farm: MeFarm; role: Role }) {
   const { t, i18n } = useTranslation();
@@ -40,26 +52,23 @@ export function RoleHome({ me, farm, role }: { me: MeResponse; farm: MeFarm; rol
         <h2 id="who-title" className="mb-3 text-xl font-bold">
           {t('home.whoTitle')}
         </h2>
-        <dl className="grid grid-cols-1 gap-x-6 gap-y-3 sm:grid-cols-[max-content_1fr]">
-          <dt className="font-bold text-muted">{t('home.name')}</dt>
-          <dd className="text-lg" data-testid="who-name">
+        <dl className="flex flex-col gap-3">
+          <InfoRow label={t('home.name')} testId="who-name">
             {me.user.name}
-          </dd>
-          <dt className="font-bold text-muted">{t('auth.email')}</dt>
-          <dd className="break-all text-lg">{me.user.email}</dd>
-          <dt className="font-bold text-muted">{t('home.role')}</dt>
-          <dd className="text-lg" data-testid="who-role">
+          </InfoRow>
+          <InfoRow label={t('auth.email')}>
+            <span className="break-all">{me.user.email}</span>
+          </InfoRow>
+          <InfoRow label={t('home.role')} testId="who-role">
             {t(`roles.${role}`)}
-          </dd>
-          <dt className="font-bold text-muted">{t('home.farm')}</dt>
-          <dd className="text-lg" data-testid="who-farm">
+          </InfoRow>
+          <InfoRow label={t('home.farm')} testId="who-farm">
             {farm.name}
-          </dd>
-          <dt className="font-bold text-muted">{t('home.farmTime')}</dt>
-          <dd className="text-lg">
+          </InfoRow>
+          <InfoRow label={t('home.farmTime')}>
             {clock} <span className="text-muted">({farm.timeZone})</span>
-            <p className="text-sm text-muted">{t('home.farmDayNote')}</p>
-          </dd>
+            <span className="block text-sm text-muted">{t('home.farmDayNote')}</span>
+          </InfoRow>
         </dl>
       </section>
 

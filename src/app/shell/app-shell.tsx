@@ -78,7 +78,7 @@ function FarmShell() {
     }
     setSigningOut(false);
     setMoreOpen(false);
-    navigate(paths.signIn, { replace: true });
+    void navigate(paths.signIn, { replace: true });
   };
 
   const entries = current ? navFor(current.role) : [];
