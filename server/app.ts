@@ -89,7 +89,7 @@ export function createApp(deps: AppDeps): AppHandle {
   app.use(buildRouter(routes, deps.services.auth, cookie));
   app.use('/api', (_req, _res, next) => next(notFound('API route')));
 
-  const clientDir = deps.clientDir === undefined ? resolve(config.CLIENT_DIST_DIR) : deps.clientDir;
+  const clientDir = deps.clientDir === undefined ? resolve(config.CLIENT_DIST_DIR) : deps.clientDir ? resolve(deps.clientDir) : null;
   if (clientDir && existsSync(join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: (res, path) => {
       if (path.includes(`${join(clientDir, 'assets')}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
