@@ -22,7 +22,11 @@ describe('simulator configuration', () => {
   it('reads the environment, and flags win over it', () => {
     const env = { PROBE_CREDENTIALS_FILE: '/tmp/p.json', MQTT_BROKER_URL: 'mqtt://10.0.0.1:1883', FARM_TIME_ZONE: 'America/Chicago' };
     const fromEnv = parseConfig([], env);
-    expect(fromEnv.ok && fromEnv.config).toMatchObject({ credentialsFile: '/tmp/p.json', brokerUrl: 'mqtt://10.0.0.1:1883', timeZone: 'America/Chicago' });
+    expect(fromEnv.ok && fromEnv.config).toMatchObject({
+      credentialsFile: '/tmp/p.json',
+      brokerUrl: 'mqtt://10.0.0.1:1883',
+      timeZone: 'America/Chicago',
+    });
     const fromFlags = parseConfig(['--broker', 'mqtt://127.0.0.1:18830', '--credentials', 'x.json'], env);
     expect(fromFlags.ok && fromFlags.config).toMatchObject({ credentialsFile: 'x.json', brokerUrl: 'mqtt://127.0.0.1:18830' });
   });
@@ -30,18 +34,29 @@ describe('simulator configuration', () => {
   it('parses every flag', () => {
     const result = parseConfig(
       [
-        '--scenario', 'flow-cut:at=14:00',
-        '--probes', '4',
-        '--only', 'pond-1, pond-2',
-        '--interval', '0.5',
-        '--speed', '60',
+        '--scenario',
+        'flow-cut:at=14:00',
+        '--probes',
+        '4',
+        '--only',
+        'pond-1, pond-2',
+        '--interval',
+        '0.5',
+        '--speed',
+        '60',
         '--once',
-        '--backfill', '6',
-        '--seed', 'harrow',
-        '--tz', 'UTC',
-        '--lat', '35.2',
-        '--lon', '-91.7',
-        '--fahrenheit', 'pond-3',
+        '--backfill',
+        '6',
+        '--seed',
+        'harrow',
+        '--tz',
+        'UTC',
+        '--lat',
+        '35.2',
+        '--lon',
+        '-91.7',
+        '--fahrenheit',
+        'pond-3',
         '--verbose',
       ],
       {},
@@ -96,6 +111,7 @@ describe('simulator configuration', () => {
   });
 
   it('help lists every scenario', () => {
-    for (const name of ['steady', 'cycling', 'dropout', 'drift', 'spike', 'flatline', 'burst', 'flow-cut']) expect(helpText()).toContain(name);
+    for (const name of ['steady', 'cycling', 'dropout', 'drift', 'spike', 'flatline', 'burst', 'flow-cut'])
+      expect(helpText()).toContain(name);
   });
 });

@@ -65,7 +65,8 @@ export function parseFarmSpec(text: string): { slug: string; site: FarmSiteOverr
   if (lat !== undefined && lon !== undefined) {
     const latitude = Number(lat);
     const longitude = Number(lon);
-    if (Math.abs(latitude) > 66 || Math.abs(longitude) > 180) return `--farm ${slug}: latitude must be within ±66 and longitude within ±180`;
+    if (Math.abs(latitude) > 66 || Math.abs(longitude) > 180)
+      return `--farm ${slug}: latitude must be within ±66 and longitude within ±180`;
     site.latitude = latitude;
     site.longitude = longitude;
   }
@@ -78,7 +79,14 @@ const DEFAULT_BACKFILL_HOURS = 24;
 const list = z
   .string()
   .optional()
-  .transform((s) => (s ? s.split(',').map((x) => x.trim()).filter(Boolean) : []));
+  .transform((s) =>
+    s
+      ? s
+          .split(',')
+          .map((x) => x.trim())
+          .filter(Boolean)
+      : [],
+  );
 const optionalNumber = (schema: z.ZodNumber) =>
   z
     .string()
@@ -116,7 +124,12 @@ const rawSchema = z.object({
   interval: optionalNumber(z.number().min(0.05).max(86_400)),
   speed: optionalNumber(z.number().min(0.01).max(100_000)),
   once: z.boolean().optional(),
-  backfill: optionalNumber(z.number().min(0).max(24 * 60)),
+  backfill: optionalNumber(
+    z
+      .number()
+      .min(0)
+      .max(24 * 60),
+  ),
   seed: z.string().min(1).optional(),
   tz: z
     .string()

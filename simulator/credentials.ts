@@ -7,8 +7,7 @@ import { type ProbeCredentialFile, probeCredentialFileSchema } from '../shared/s
 export type ProbeCredential = ProbeCredentialFile['probes'][number];
 
 export type CredentialFileRead =
-  | { ok: true; file: ProbeCredentialFile }
-  | { ok: false; reason: 'missing' | 'unreadable' | 'invalid'; message: string };
+  { ok: true; file: ProbeCredentialFile } | { ok: false; reason: 'missing' | 'unreadable' | 'invalid'; message: string };
 
 export async function readCredentialFile(path: string): Promise<CredentialFileRead> {
   let text: string;
@@ -30,7 +29,8 @@ export function parseCredentialFile(text: string, path = 'credential file'): Cre
     return { ok: false, reason: 'invalid', message: `${path} is not JSON: ${(error as Error).message}` };
   }
   const parsed = probeCredentialFileSchema.safeParse(json);
-  if (!parsed.success) return { ok: false, reason: 'invalid', message: `${path} is not a probe credential file:\n${z.prettifyError(parsed.error)}` };
+  if (!parsed.success)
+    return { ok: false, reason: 'invalid', message: `${path} is not a probe credential file:\n${z.prettifyError(parsed.error)}` };
   return { ok: true, file: parsed.data };
 }
 
@@ -44,7 +44,18 @@ export interface CredentialDiff {
 }
 
 const modelFields = (c: ProbeCredential): string =>
-  JSON.stringify([c.unitKind, c.waterType, c.salinityPpt, c.species, c.quantities, c.intervalSeconds, c.scenario, c.temperatureUnit, c.farmSlug, c.unitCode]);
+  JSON.stringify([
+    c.unitKind,
+    c.waterType,
+    c.salinityPpt,
+    c.species,
+    c.quantities,
+    c.intervalSeconds,
+    c.scenario,
+    c.temperatureUnit,
+    c.farmSlug,
+    c.unitCode,
+  ]);
 
 export function diffCredentials(current: ReadonlyMap<string, ProbeCredential>, next: readonly ProbeCredential[]): CredentialDiff {
   const diff: CredentialDiff = { added: [], removed: [], rotated: [], changed: [] };

@@ -289,7 +289,11 @@ describe('simulator against an in-process aedes broker', () => {
     await sim.reload();
     await waitFor(() => received.some((r) => r.probeKey === 'pond-2'), 5000, 'pond-2');
     const connectsBefore = broker.connects.filter((k) => k === 'pond-1').length;
-    await waitFor(() => broker.connects.filter((k) => k === 'pond-1').length > connectsBefore || connectsBefore >= 2, 5000, 'pond-1 reconnect');
+    await waitFor(
+      () => broker.connects.filter((k) => k === 'pond-1').length > connectsBefore || connectsBefore >= 2,
+      5000,
+      'pond-1 reconnect',
+    );
     expect(lines.some((l) => l.includes('[pond-1] secret rotated'))).toBe(true);
     const count = received.length;
     await waitFor(() => received.slice(count).some((r) => r.probeKey === 'pond-1'), 5000, 'pond-1 after rotation');

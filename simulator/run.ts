@@ -51,7 +51,10 @@ export function scenarioFor(entry: ProbeCredential, flag: string | undefined, fi
 }
 
 /** A farm's time zone and position: its --farm entry, else the global --tz / --lat / --lon. */
-export function siteFor(config: Pick<SimulatorConfig, 'farms' | 'timeZone' | 'latitude' | 'longitude'>, farmSlug: string): Partial<FarmSite> {
+export function siteFor(
+  config: Pick<SimulatorConfig, 'farms' | 'timeZone' | 'latitude' | 'longitude'>,
+  farmSlug: string,
+): Partial<FarmSite> {
   const own = config.farms[farmSlug] ?? {};
   const latitude = own.latitude ?? (own.longitude === undefined ? config.latitude : undefined);
   const longitude = own.longitude ?? (own.latitude === undefined ? config.longitude : undefined);
@@ -175,7 +178,9 @@ export function startSimulator(config: SimulatorConfig, deps: SimulatorDeps): Si
     }
     if (diff.added.length > 0 && !config.once) {
       const zones = [...new Set([...runners.keys()].map((k) => siteFor(config, credentials.get(k)?.farmSlug ?? '').timeZone))];
-      log.info(`${runners.size} probes publishing to ${brokerUrl} (seed ${config.seed}, speed ×${config.speed}, farm time ${zones.join(', ')})`);
+      log.info(
+        `${runners.size} probes publishing to ${brokerUrl} (seed ${config.seed}, speed ×${config.speed}, farm time ${zones.join(', ')})`,
+      );
     }
     return true;
   }
@@ -184,7 +189,9 @@ export function startSimulator(config: SimulatorConfig, deps: SimulatorDeps): Si
     const read = await readCredentialFile(config.credentialsFile);
     if (!read.ok) {
       if (read.reason === 'missing' && runners.size === 0) {
-        problemOnce(`waiting for the probe credential file at ${config.credentialsFile} (the demo seed writes it; set PROBE_CREDENTIALS_FILE or --credentials to use another)`);
+        problemOnce(
+          `waiting for the probe credential file at ${config.credentialsFile} (the demo seed writes it; set PROBE_CREDENTIALS_FILE or --credentials to use another)`,
+        );
       } else {
         problemOnce(`${read.message}; keeping the probes already running`, 'error');
       }
@@ -217,7 +224,9 @@ export function startSimulator(config: SimulatorConfig, deps: SimulatorDeps): Si
     const deadline = now() + SHUTDOWN_FLUSH_MS;
     const left = await Promise.all([...runners.values()].map((r) => r.stop(deadline)));
     const unsent = left.reduce((a, b) => a + b, 0);
-    log.info(`stopped: ${stats.samplesSent} samples sent in ${stats.messagesSent} messages${unsent ? `; ${unsent} unsent samples discarded` : ''}`);
+    log.info(
+      `stopped: ${stats.samplesSent} samples sent in ${stats.messagesSent} messages${unsent ? `; ${unsent} unsent samples discarded` : ''}`,
+    );
     resolveDone(code);
   }
 
@@ -246,7 +255,9 @@ export function startSimulator(config: SimulatorConfig, deps: SimulatorDeps): Si
     summaryTimer = setInterval(() => {
       const connected = [...runners.values()].filter((r) => r.connected).length;
       const buffered = [...runners.values()].reduce((a, r) => a + r.queue.size, 0);
-      log.info(`${stats.samplesSent - lastSent} samples sent in the last minute; ${connected}/${runners.size} connected; ${buffered} buffered`);
+      log.info(
+        `${stats.samplesSent - lastSent} samples sent in the last minute; ${connected}/${runners.size} connected; ${buffered} buffered`,
+      );
       lastSent = stats.samplesSent;
     }, 60_000);
   }

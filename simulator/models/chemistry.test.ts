@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { salinityFromConductivity, salinityFromSpecificConductance } from '../../shared/chemistry';
-import { carbonateConstants, carbonateFromDic, conductivityFromSalinity, dicFromPh, doSaturationMgL, specificConductanceFromSalinity } from './chemistry';
+import {
+  carbonateConstants,
+  carbonateFromDic,
+  conductivityFromSalinity,
+  dicFromPh,
+  doSaturationMgL,
+  specificConductanceFromSalinity,
+} from './chemistry';
 
 describe('conductance from salinity (PSS-78 inverted)', () => {
   it('matches the computed check values: 17.022 mS/cm ↔ S 10 and 53.065 ↔ S 35 (water-chemistry.md §4, computed)', () => {

@@ -28,12 +28,7 @@ const MAX_MS_CM = 99.9;
 export function specificConductanceFromSalinity(salinityPpt: number): number {
   const s = clamp(salinityPpt, 0, 45);
   if (s === 0) return 0;
-  return invertIncreasing(
-    (sc) => salinityFromSpecificConductance({ specificConductanceMsCm: sc }),
-    s,
-    0,
-    MAX_MS_CM,
-  );
+  return invertIncreasing((sc) => salinityFromSpecificConductance({ specificConductanceMsCm: sc }), s, 0, MAX_MS_CM);
 }
 
 /** In-situ conductivity (mS/cm at the water temperature) for a practical salinity: PSS-78 inverted by bisection. */

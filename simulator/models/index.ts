@@ -17,14 +17,7 @@ export {
   carbonateFromDic,
   dicFromPh,
 } from './chemistry';
-export {
-  type FarmWeatherFor,
-  type GenerateHistoryOptions,
-  type TimeInput,
-  farmWeatherFor,
-  generateHistory,
-  toMs,
-} from './history';
+export { type FarmWeatherFor, type GenerateHistoryOptions, type TimeInput, farmWeatherFor, generateHistory, toMs } from './history';
 export { type ProbeModelOptions, type UnitState, ProbeModel, unsupportedQuantities } from './probe-model';
 export { deriveSeed } from './random';
 export { type ProbeTelemetry, probeTelemetry } from './telemetry';

@@ -295,7 +295,14 @@ describe('generateHistory', () => {
       intervalSeconds: 60,
       scenario: 'steady',
     };
-    const samples = generateHistory({ probe: entry, from: '2025-07-01T05:00:00Z', to: new Date('2025-07-01T06:00:00Z'), stepSeconds: 600, seed: 1, site });
+    const samples = generateHistory({
+      probe: entry,
+      from: '2025-07-01T05:00:00Z',
+      to: new Date('2025-07-01T06:00:00Z'),
+      stepSeconds: 600,
+      seed: 1,
+      site,
+    });
     expect(samples).toHaveLength(6);
     expect(samples[0]?.values.map((v) => v.quantity)).toEqual(entry.quantities);
     const sc = samples[0]?.values.find((v) => v.quantity === 'specific_conductance')?.value ?? 0;

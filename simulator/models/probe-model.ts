@@ -105,8 +105,7 @@ export class ProbeModel {
     this.seed = deriveSeed(options.seed, 'probe', options.probe.probeKey);
     this.params = unitParams(options.probe, deriveSeed(options.seed, 'farm-units'));
     this.scenario =
-      options.scenario ??
-      createScenario(options.probe.scenario, { startMs: options.startMs, timeZone: options.weather.site.timeZone });
+      options.scenario ?? createScenario(options.probe.scenario, { startMs: options.startMs, timeZone: options.weather.site.timeZone });
     const wanted = new Set(options.probe.quantities);
     // In-situ conductivity means nothing without the temperature it was read at.
     if (wanted.has('conductivity')) wanted.add('water_temperature');
@@ -199,8 +198,7 @@ export class ProbeModel {
     // Most of what the bloom fixes is respired again within a day or two (algal dark respiration and
     // bacterial decay), which closes the carbon cycle; the rest settles out. Fish and sediment come on top.
     const decomposition = DECOMPOSED_FRACTION * s.recentPhotosynthesisMgLPerHour;
-    const respiration =
-      (decomposition + (p.planktonRespirationMgLPerHour * algae + p.fishRespirationMgLPerHour) * q10Factor) * doLimit;
+    const respiration = (decomposition + (p.planktonRespirationMgLPerHour * algae + p.fishRespirationMgLPerHour) * q10Factor) * doLimit;
     const recentPhotosynthesisMgLPerHour = relax(s.recentPhotosynthesisMgLPerHour, photosynthesis, 1 / DECOMPOSITION_HOURS, dt);
     const kSurface = p.kSurfacePerHour * clamp(0.6 + 0.2 * w.windMs, 0.4, 3);
     const kAerator = s.aeratorRunning && p.aerator ? p.aerator.kPerHour : 0;

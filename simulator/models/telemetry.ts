@@ -18,6 +18,9 @@ export function probeTelemetry(seed: number | string, probeKey: string, ms: numb
   const daysIntoCycle = (((ms / DAY_MS + phaseDays) % cycleDays) + cycleDays) % cycleDays;
   const batteryPct = Math.round((100 - daysIntoCycle * DRAIN_PCT_PER_DAY) * 10) / 10;
   const baseRssi = -85 + 25 * unitHash(s, 2);
-  const rssi = baseRssi + 4 * smoothNoise(deriveSeed(s, 'rssi-slow'), ms / HOUR_MS, 0.5) + 2 * signedHash(deriveSeed(s, 'rssi'), Math.floor(ms / 1000));
+  const rssi =
+    baseRssi +
+    4 * smoothNoise(deriveSeed(s, 'rssi-slow'), ms / HOUR_MS, 0.5) +
+    2 * signedHash(deriveSeed(s, 'rssi'), Math.floor(ms / 1000));
   return { batteryPct: Math.min(100, Math.max(0, batteryPct)), rssiDbm: Math.round(Math.min(-30, Math.max(-120, rssi))) };
 }

@@ -22,9 +22,24 @@ const weather = farmWeatherFor({ seed: 9, farmSlug: 'harrow-bend', site: { timeZ
 
 const probes: ProbeSpec[] = [
   { probeKey: 'pond-1', unitKind: 'pond', waterType: 'fresh', salinityPpt: 0.2, quantities: ALL },
-  { probeKey: 'pond-2', unitKind: 'pond', waterType: 'fresh', salinityPpt: 0.2, quantities: ALL, temperatureUnit: 'F', scenario: 'spike:probability=0.2' },
+  {
+    probeKey: 'pond-2',
+    unitKind: 'pond',
+    waterType: 'fresh',
+    salinityPpt: 0.2,
+    quantities: ALL,
+    temperatureUnit: 'F',
+    scenario: 'spike:probability=0.2',
+  },
   { probeKey: 'pond-3', unitKind: 'pond', waterType: 'fresh', salinityPpt: 0.2, quantities: ALL, scenario: 'drift:phPerDay=0.5' },
-  { probeKey: 'shrimp-1', unitKind: 'pond', waterType: 'brackish', salinityPpt: 18, quantities: ALL, scenario: 'flatline:quantity=salinity' },
+  {
+    probeKey: 'shrimp-1',
+    unitKind: 'pond',
+    waterType: 'brackish',
+    salinityPpt: 18,
+    quantities: ALL,
+    scenario: 'flatline:quantity=salinity',
+  },
   { probeKey: 'rw-1', unitKind: 'raceway', waterType: 'fresh', salinityPpt: 0.1, quantities: ALL, scenario: 'flow-cut' },
   { probeKey: 'rw-2', unitKind: 'raceway', waterType: 'fresh', salinityPpt: 0.1, quantities: ALL, scenario: 'spike:probability=0.3' },
   { probeKey: 'tank-1', unitKind: 'tank', waterType: 'marine', salinityPpt: 34, quantities: ALL, scenario: 'cycling' },
@@ -50,7 +65,9 @@ describe('generated payloads', () => {
         expect(parsed.success, parsed.success ? '' : parsed.error.message).toBe(true);
         for (const s of payload.samples) {
           for (const v of s.values) {
-            expect(isPhysicallyPossible({ quantity: v.quantity, value: toCanonicalUnit(v) }), `${v.quantity} ${v.value} ${v.unit}`).toBe(true);
+            expect(isPhysicallyPossible({ quantity: v.quantity, value: toCanonicalUnit(v) }), `${v.quantity} ${v.value} ${v.unit}`).toBe(
+              true,
+            );
           }
         }
       }
