@@ -119,6 +119,16 @@ export function startSimulator(config: SimulatorConfig, deps: SimulatorDeps): Si
 
   /** Applies a freshly read file. Returns false on a fatal problem (burst without enough credentials). */
   async function apply(brokerUrlFromFile: string, entries: readonly ProbeCredential[]): Promise<boolean> {
+    // The file may carry each farm's time zone and position; a --farm flag still wins.
+    for (const e of entries) {
+      if (e.farmTimeZone && !config.farms[e.farmSlug]) {
+        config.farms[e.farmSlug] = {
+          timeZone: e.farmTimeZone,
+          ...(e.latitude === undefined ? {} : { latitude: e.latitude }),
+          ...(e.longitude === undefined ? {} : { longitude: e.longitude }),
+        };
+      }
+    }
     const selected = selectProbes(entries, config);
     const firstRacewayKey = selected.find((e) => e.unitKind === 'raceway')?.probeKey;
     const settings = new Map(selected.map((e) => [e.probeKey, runnerSettings(e, firstRacewayKey)]));

@@ -81,6 +81,13 @@ export const probeCredentialFileSchema = z.object({
       scenario: z.string().default('steady'),
       /** Unit the probe reports water temperature in (some demo probes use °F to exercise normalisation). */
       temperatureUnit: z.enum(['C', 'F']).optional(),
+      /** The farm's time zone and position, so the simulator's sun and weather follow the farm's local day. */
+      farmTimeZone: z.string().optional(),
+      latitude: z.number().min(-90).max(90).optional(),
+      longitude: z.number().min(-180).max(180).optional(),
+      /** Unit geometry the simulator's model uses (design flow of a raceway, water depth). */
+      designFlowLpm: z.number().positive().optional(),
+      depthM: z.number().positive().optional(),
     }),
   ),
 });

@@ -70,7 +70,7 @@ describe('probe ingest over MQTT', () => {
     const a = await createProbe(t.ds, farmId, seed.units['harrow-bend:P1']!);
     const b = await createProbe(t.ds, farmId, seed.units['harrow-bend:P2']!);
     const c = await connect(a.probeKey, a.secret);
-    const closed = new Promise((resolve) => c.once('close', resolve));
+    const closed = new Promise<void>((resolve) => c.once('close', () => resolve()));
     c.publish(readingsTopic(b.probeKey), payload([{ at: new Date().toISOString(), values: [{ quantity: 'ph', value: 8, unit: 'pH' }] }]), { qos: 1 });
     await closed;
     expect(await count(b.probeId)).toBe(0);

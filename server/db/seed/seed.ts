@@ -119,8 +119,14 @@ export async function seedDemo(ds: DataSource, options: SeedOptions): Promise<Se
             species: u.species,
             quantities: u.probe.quantities,
             intervalSeconds: 60,
-            scenario: u.probe.scenario,
+            // The flow cut happened about a day and a half ago; history and the live simulator agree on when.
+            scenario: u.probe.scenario === 'flow-cut' ? `flow-cut:at=${new Date(now.getTime() - 32 * HOUR).toISOString()},fraction=0.15` : u.probe.scenario,
             ...(u.probe.temperatureUnit ? { temperatureUnit: u.probe.temperatureUnit } : {}),
+            farmTimeZone: farmDef.timeZone,
+            latitude: farmDef.origin.lat,
+            longitude: farmDef.origin.lon,
+            depthM: u.depthM,
+            ...(u.designFlowLpm ? { designFlowLpm: u.designFlowLpm } : {}),
           },
         });
         // pH calibrations: one recent, one overdue (R2's pH electrode is due for calibration).
@@ -326,7 +332,10 @@ async function reissueCredentialsIfMissing(ds: DataSource, options: SeedOptions)
     const secret = newProbeSecret();
     await ds.getRepository(Probe).update({ id: probe.id }, { secretHash: hashProbeSecret(secret), secretRotatedAt: new Date() });
     const demo = all.find((u) => u.code === unit.code);
+    const farmDef = [HARROW_BEND, CEDAR_FLATS].find((f) => f.slug === farm.slug);
     entries.push({
+      ...(farmDef ? { farmTimeZone: farmDef.timeZone, latitude: farmDef.origin.lat, longitude: farmDef.origin.lon } : {}),
+      ...(demo ? { depthM: demo.depthM, ...(demo.designFlowLpm ? { designFlowLpm: demo.designFlowLpm } : {}), ...(demo.probe.temperatureUnit ? { temperatureUnit: demo.probe.temperatureUnit } : {}) } : {}),
       probeKey: probe.probeKey,
       secret,
       farmSlug: farm.slug,
