@@ -49,7 +49,13 @@ export type ProbeFacts = {
 /** Whether the newest readings of a quantity look stuck (before measuring the whole run). */
 export function isFlatTail(t: FlatTail): boolean {
   const r = HEALTH_RULES.flatline;
-  return t.n >= r.minReadings && t.hi - t.lo <= r.epsilon && (t.lastAt.getTime() - t.firstAt.getTime()) / 60_000 >= r.minMinutes;
+  return t.n >= r.minReadings && t.hi - t.lo <= r.epsilon;
+}
+
+/** A measured run is a flatline when it holds enough readings and lasts long enough. */
+export function isFlatline(run: FlatRun): boolean {
+  const r = HEALTH_RULES.flatline;
+  return run.readings >= r.minReadings && (run.lastAt.getTime() - run.sinceAt.getTime()) / 60_000 >= r.minMinutes;
 }
 
 /** Turns one probe's facts into findings and a state. Pure: same facts and `now`, same answer. */
@@ -87,7 +93,7 @@ export function assessProbe(facts: ProbeFacts, settings: { silentAfterMissedInte
       findings.push({ kind: 'silent', lastReadingAt: facts.lastReadingAt?.toISOString() ?? null, silentForSeconds, thresholdSeconds });
     // A silent probe's last readings are old news: flatline is only judged on a reporting probe.
     if (!silent) {
-      for (const run of facts.flatRuns) {
+      for (const run of facts.flatRuns.filter(isFlatline)) {
         findings.push({
           kind: 'flatline',
           quantity: run.quantity,

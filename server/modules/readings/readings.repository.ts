@@ -7,6 +7,28 @@ export type LatestReadingRow = { probeId: string; unitId: string; quantity: stri
 
 const EPOCH = '1970-01-01T00:00:00Z';
 
+const aggregates = `avg(value) AS avg, min(value) AS min, max(value) AS max, count(*)::int AS n,
+  (count(*) FILTER (WHERE quality <> 'good'))::int AS suspect`;
+const range = `probe_id = ANY($1::uuid[]) AND quantity = $2 AND at >= $3 AND at < $4`;
+
+/**
+ * The series queries, exported so tests EXPLAIN exactly what runs. Parameters: $1 probe ids, $2 quantity,
+ * $3 from (inclusive), $4 to (exclusive); countUpTo: $5 cap; buckets: $5 bucket seconds, $6 bucket origin.
+ * Each reads only the range of pk_readings (probe_id, quantity, at) it needs.
+ */
+export const seriesSql = {
+  countUpTo: `SELECT COALESCE(sum(c.n), 0)::int AS n
+    FROM unnest($1::uuid[]) AS p(id)
+    CROSS JOIN LATERAL (
+      SELECT count(*) AS n FROM (
+        SELECT 1 FROM readings WHERE probe_id = p.id AND quantity = $2 AND at >= $3 AND at < $4 ORDER BY at LIMIT $5
+      ) capped
+    ) c`,
+  raw: `SELECT at AS t, ${aggregates} FROM readings WHERE ${range} GROUP BY at ORDER BY at`,
+  buckets: `SELECT date_bin(make_interval(secs => $5), at, $6::timestamptz) AS t, ${aggregates}
+    FROM readings WHERE ${range} GROUP BY 1 ORDER BY 1`,
+};
+
 export class ReadingsRepository {
   constructor(private readonly ds: DataSource) {}
 
@@ -79,37 +101,28 @@ export class ReadingsRepository {
       .map((r) => ({ id: r.id, quantities: r.quantities ?? [] }));
   }
 
-  /** min(count, cap): counting stops at `cap`, so deciding "raw or buckets" costs the same for any range. */
+  /**
+   * min(count, cap), per probe: each probe's count is an index-only scan of pk_readings that stops
+   * after `cap` entries, so deciding "raw or buckets" costs the same for any range.
+   */
   async countUpTo(probeIds: string[], quantity: string, from: Date, to: Date, cap: number): Promise<number> {
-    const rows = (await this.ds.query(
-      `SELECT count(*)::int AS n FROM (
-         SELECT 1 FROM readings WHERE probe_id = ANY($1::uuid[]) AND quantity = $2 AND at >= $3 AND at < $4 LIMIT $5
-       ) capped`,
-      [probeIds, quantity, from, to, cap],
-    )) as Array<{ n: number }>;
-    return rows[0]?.n ?? 0;
+    const rows = (await this.ds.query(seriesSql.countUpTo, [probeIds, quantity, from, to, cap])) as Array<{ n: number }>;
+    return Math.min(rows[0]?.n ?? 0, cap);
   }
 
   /** Raw readings (one point per instant; two probes at the same instant are averaged). */
   async rawPoints(probeIds: string[], quantity: string, from: Date, to: Date): Promise<BucketRow[]> {
-    return this.points(`at`, probeIds, quantity, from, to, []);
+    return (await this.ds.query(seriesSql.raw, [probeIds, quantity, from, to])) as BucketRow[];
   }
 
   /** Readings averaged into buckets of `bucketSeconds`, aligned to the Unix epoch (date_bin), in SQL. */
   async bucketPoints(probeIds: string[], quantity: string, from: Date, to: Date, bucketSeconds: number): Promise<BucketRow[]> {
-    return this.points(`date_bin(make_interval(secs => $5), at, $6::timestamptz)`, probeIds, quantity, from, to, [bucketSeconds, EPOCH]);
-  }
-
-  private async points(bucket: string, probeIds: string[], quantity: string, from: Date, to: Date, extra: unknown[]): Promise<BucketRow[]> {
-    const rows = (await this.ds.query(
-      `SELECT ${bucket} AS t, avg(value) AS avg, min(value) AS min, max(value) AS max, count(*)::int AS n,
-              (count(*) FILTER (WHERE quality <> 'good'))::int AS suspect
-       FROM readings
-       WHERE probe_id = ANY($1::uuid[]) AND quantity = $2 AND at >= $3 AND at < $4
-       GROUP BY 1 ORDER BY 1`,
-      [probeIds, quantity, from, to, ...extra],
-    )) as BucketRow[];
-    return rows;
+    return this.ds.transaction(async (m) => {
+      // The planner cannot know that date_bin() makes at most ~2000 groups, and at the default 4 MB it
+      // sorts 90 days (130 000 rows) on disk; with room for a hash aggregate the query takes half the time.
+      await m.query(`SET LOCAL work_mem = '16MB'`);
+      return (await m.query(seriesSql.buckets, [probeIds, quantity, from, to, bucketSeconds, EPOCH])) as BucketRow[];
+    });
   }
 
   /**
