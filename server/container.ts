@@ -31,6 +31,7 @@ import { ObservationsRepository } from './modules/observations/observations.repo
 import { ObservationsService } from './modules/observations/observations.service';
 import { TasksRepository } from './modules/tasks/tasks.repository';
 import { TasksService } from './modules/tasks/tasks.service';
+import { createStockAndFeedServices } from './modules/feed/compose';
 
 export type CoreDeps = {
   config: Env;
@@ -67,7 +68,8 @@ export function createServices(deps: CoreDeps) {
   const treatments = new TreatmentsService(new TreatmentsRepository(deps.ds), deps.queues, auditSink);
   const observations = new ObservationsService(new ObservationsRepository(deps.ds), deps.queues, live);
   const tasks = new TasksService(new TasksRepository(deps.ds));
-  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes };
+  const stockAndFeed = createStockAndFeedServices({ ds: deps.ds, queues: deps.queues, live, audit: auditSink, logger: deps.logger, waterTests, treatments, observations });
+  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed };
 }
 
 export type Services = ReturnType<typeof createServices>;

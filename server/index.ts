@@ -1,5 +1,6 @@
 import 'reflect-metadata';
 import { createServer } from 'node:http';
+import { createServer as createHttpsServer } from 'node:https';
 import { createApp } from './app';
 import { env } from './config/env';
 import { createServices } from './container';
@@ -9,6 +10,7 @@ import { createLogger } from './lib/logger';
 import { createSmtpMailer } from './lib/mailer';
 import { createRedis } from './lib/redis';
 import { createShutdown } from './lib/shutdown';
+import { ensureCertificate } from './lib/tls';
 import { HealthService } from './modules/health/health.service';
 import { createQueues } from './queues';
 
@@ -37,5 +39,11 @@ const server = createServer(app);
 server.listen(config.HTTP_PORT, config.HTTP_HOST, () => {
   logger.info({ url: `http://${config.HTTP_HOST}:${config.HTTP_PORT}`, mqttPort: config.MQTT_PORT }, 'Gillwise server listening');
 });
+if (config.HTTPS_PORT) {
+  const tls = await ensureCertificate(config.DATA_DIR);
+  const secure = createHttpsServer({ key: tls.key, cert: tls.cert }, app);
+  secure.listen(config.HTTPS_PORT, config.HTTPS_HOST, () => logger.info({ port: config.HTTPS_PORT, host: config.HTTPS_HOST, certificate: tls.path }, 'HTTPS listening (self-signed)'));
+  shutdown.add('https', () => new Promise<void>((done) => { secure.close(() => done()); secure.closeAllConnections(); }));
+}
 // Stop taking HTTP first (registered last, runs first), then the broker, queues, Redis and the database.
 shutdown.add('http', () => new Promise<void>((done) => { server.close(() => done()); server.closeAllConnections(); }));

@@ -51,6 +51,8 @@ export function resolveOptions(flags) {
     vitePort: portOption(flags, 'vite-port', ['GILLWISE_VITE_PORT'], 5173),
     publicUrl: flags['public-url'] ?? process.env.GILLWISE_PUBLIC_URL ?? `http://127.0.0.1:${httpPort}`,
     simulator: flags.simulator,
+    // --https [N]: also serve HTTPS (self-signed, generated once) on all interfaces, for phones on the farm network.
+    httpsPort: flags.https === undefined && !process.env.GILLWISE_HTTPS_PORT ? null : Number(flags.https === true ? (process.env.GILLWISE_HTTPS_PORT ?? 8443) : (flags.https ?? process.env.GILLWISE_HTTPS_PORT)),
     build: flags.build, // true: always, false: never, undefined: when stale
     chromium: flags.chromium === true,
     system: flags.system !== false,
@@ -231,6 +233,7 @@ export async function runStack(mode, flags) {
       NODE_ENV: mode === 'dev' ? 'development' : 'production',
       HTTP_HOST: '127.0.0.1',
       HTTP_PORT: String(options.httpPort),
+      ...(options.httpsPort ? { HTTPS_PORT: String(options.httpsPort) } : {}),
       PUBLIC_URL: mode === 'dev' && !flags['public-url'] && !process.env.GILLWISE_PUBLIC_URL ? `http://127.0.0.1:${options.vitePort}` : options.publicUrl,
       DATABASE_URL: `postgres://postgres@127.0.0.1:${pg.port}/${DATABASE_NAME}`,
       REDIS_URL: redis.url,
@@ -293,6 +296,7 @@ export async function runStack(mode, flags) {
         '',
         `Open          ${address}`,
         `API health    ${healthUrl}`,
+        ...(options.httpsPort ? [`HTTPS (LAN)   https://<this machine's address>:${options.httpsPort}  (self-signed: accept it once on each phone)`] : []),
         `MQTT broker   127.0.0.1:${options.mqttPort}`,
         `Caught mail   ${mail.ready.apiUrl}/messages   (SMTP 127.0.0.1:${mail.ready.smtpPort})`,
         '',

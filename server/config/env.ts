@@ -7,6 +7,8 @@ const schema = z.object({
   HTTP_HOST: z.string().default('127.0.0.1'),
   HTTP_PORT: z.coerce.number().int().min(0).max(65535).default(8080),
   HTTPS_PORT: z.coerce.number().int().min(0).max(65535).optional(),
+  /** HTTPS is for phones on the farm network, so it listens on every interface unless told otherwise. */
+  HTTPS_HOST: z.string().default('0.0.0.0'),
   PUBLIC_URL: z.url().default('http://127.0.0.1:8080'),
   DATABASE_URL: z.string().default('postgres://postgres@127.0.0.1:54329/gillwise'),
   REDIS_URL: z.string().default('redis://127.0.0.1:63799'),

@@ -6,6 +6,8 @@ import { waterTestRoutes } from '../modules/water-tests/water-tests.router';
 import { treatmentRoutes } from '../modules/treatments/treatments.router';
 import { observationRoutes } from '../modules/observations/observations.router';
 import { taskRoutes } from '../modules/tasks/tasks.router';
+import { stockRoutes } from '../modules/stock/stock.router';
+import { feedRoutes } from '../modules/feed/feed.router';
 import { auditRoutes } from '../modules/audit/audit.router';
 import { farmsRoutes } from '../modules/farms/farms.router';
 import { unitsRoutes } from '../modules/units/units.router';
@@ -25,6 +27,8 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...treatmentRoutes(services.treatments),
     ...observationRoutes(services.observations),
     ...taskRoutes(services.tasks),
+    ...stockRoutes(services.stock),
+    ...feedRoutes(services),
     ...farmsRoutes(services.farms),
     ...unitsRoutes(services.units),
     ...probesRoutes(services.probes, deps.broker),

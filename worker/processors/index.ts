@@ -1,4 +1,4 @@
-import type { Job } from 'bullmq';
+import { UnrecoverableError, type Job } from 'bullmq';
 import { jobs, type JobKey, type QueueName } from '../../shared/schemas/jobs.schema';
 import type { Services } from '../../server/container';
 import type { Logger } from '../../server/lib/logger';
@@ -18,7 +18,8 @@ export function createProcessors(deps: ProcessorDeps) {
   return {
     async run(queue: QueueName, job: Job): Promise<unknown> {
       const entry = byName.get(`${queue}:${job.name}`);
-      if (!entry) throw new Error(`no processor for ${queue}:${job.name}`);
+      // Retrying cannot help a job nobody processes: fail it at once (it shows in the dead-letter view).
+      if (!entry) throw new UnrecoverableError(`no processor for ${queue}:${job.name}`);
       const payload = jobs[entry.key].payload.parse(job.data);
       return entry.processor(payload, job, deps);
     },

@@ -20,11 +20,8 @@ export class ProbeCredentialFileStore {
   upsert(entry: Omit<Entry, 'scenario'> & { scenario?: string }): Promise<void> {
     return this.update((probes) => {
       const old = probes.find((p) => p.probeKey === entry.probeKey);
-      const next: Entry = {
-        ...entry,
-        scenario: entry.scenario ?? old?.scenario ?? 'steady',
-        ...(old?.temperatureUnit && !entry.temperatureUnit ? { temperatureUnit: old.temperatureUnit } : {}),
-      };
+      // Fields this server does not know (a scenario, °F reporting) stay as the file had them.
+      const next: Entry = { ...old, ...entry, scenario: entry.scenario ?? old?.scenario ?? 'steady' };
       return old ? probes.map((p) => (p.probeKey === entry.probeKey ? next : p)) : [...probes, next];
     });
   }

@@ -122,7 +122,7 @@ export class ProbesService {
       before: null,
       after: presentProbeFields(probe),
     });
-    await this.writeCredential(probe, secret, farm.slug);
+    await this.writeCredential(probe, secret);
     return {
       probe: await this.present(farmId, probe),
       credential: { username: probe.probeKey, secret, topic: readingsTopic(probe.probeKey), issuedAt: now.toISOString() },
@@ -155,8 +155,7 @@ export class ProbesService {
       before: { secretRotatedAt: before },
       after: { secretRotatedAt: saved.secretRotatedAt.toISOString() },
     });
-    const farm = await this.farms.get(farmId, 'admin');
-    await this.writeCredential(saved, secret, farm.slug);
+    await this.writeCredential(saved, secret);
     return {
       probe: await this.present(farmId, saved),
       credential: { username: saved.probeKey, secret, topic: readingsTopic(saved.probeKey), issuedAt: saved.secretRotatedAt.toISOString() },
@@ -301,15 +300,20 @@ export class ProbesService {
   }
 
   /** Keeps the simulator's credential file in step (when configured). A failure is logged, never fatal: the secret is in the answer. */
-  private async writeCredential(probe: Probe, secret: string, farmSlug: string): Promise<void> {
+  private async writeCredential(probe: Probe, secret: string): Promise<void> {
     if (!this.credentialFile) return;
     try {
       if (!probe.unitId || !probe.active) return await this.credentialFile.remove(probe.probeKey);
       const unit = await this.units.require(probe.farmId, probe.unitId);
+      const [farm, designFlowLpm] = await Promise.all([this.farms.get(probe.farmId, 'admin'), this.units.designFlowLpm(unit.id)]);
       await this.credentialFile.upsert({
+        farmTimeZone: farm.timeZone,
+        ...(farm.latitude !== null && farm.longitude !== null ? { latitude: farm.latitude, longitude: farm.longitude } : {}),
+        ...(unit.volumeM3 && unit.areaM2 ? { depthM: Math.round((unit.volumeM3 / unit.areaM2) * 100) / 100 } : {}),
+        ...(designFlowLpm ? { designFlowLpm } : {}),
         probeKey: probe.probeKey,
         secret,
-        farmSlug,
+        farmSlug: farm.slug,
         unitCode: unit.code,
         unitKind: unit.kind,
         waterType: unit.waterType,

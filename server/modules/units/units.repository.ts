@@ -64,7 +64,9 @@ export class UnitsRepository {
       .getRepository(FlowMeasurement)
       .find({ where: { unitId }, order: { measuredAt: 'DESC', createdAt: 'DESC' }, take: limit });
   }
-  latestFlow(unitId: string): Promise<FlowMeasurement | null> {
-    return this.ds.getRepository(FlowMeasurement).findOne({ where: { unitId }, order: { measuredAt: 'DESC', createdAt: 'DESC' } });
+  latestFlow(unitId: string, source?: FlowMeasurement['source']): Promise<FlowMeasurement | null> {
+    return this.ds
+      .getRepository(FlowMeasurement)
+      .findOne({ where: { unitId, ...(source ? { source } : {}) }, order: { measuredAt: 'DESC', createdAt: 'DESC' } });
   }
 }

@@ -203,6 +203,11 @@ export class UnitsService {
     return fromMeasure.at.getTime() > fromProbe.at.getTime() ? fromMeasure : fromProbe;
   }
 
+  /** The newest design flow of the unit, L/min, or null (raceway and tank models, the simulator). */
+  async designFlowLpm(unitId: string): Promise<number | null> {
+    return (await this.repo.latestFlow(unitId, 'design'))?.flowLpm ?? null;
+  }
+
   private async checkProfile(farmId: string, profileId: string): Promise<void> {
     if (!(await this.repo.thresholdProfileOnFarm(farmId, profileId))) {
       throw validationError({ formErrors: [], fieldErrors: { thresholdProfileId: ['no threshold profile with this id on this farm'] } });
