@@ -121,6 +121,8 @@ describe('farms', () => {
       { probeId: b.probeId, quantity: 'water_temperature', at: at(2), value: 24.6, quality: 'suspect' },
       { probeId: b.probeId, quantity: 'dissolved_oxygen', at: at(5), value: 5.2 },
     ]);
+    // Without a status provider (or one that knows nothing) the status is null.
+    t.services.farms.useUnitStatusProvider(async () => new Map());
     const res = await admin.get(`/api/farms/${id}/status`);
     expect(res.status).toBe(200);
     expect(res.body.localDay).toMatch(/^\d{4}-\d{2}-\d{2}$/);
@@ -141,15 +143,11 @@ describe('farms', () => {
     });
     expect(byCode.T1).toMatchObject({ latest: {}, lastReadingAt: null, status: null });
 
-    // The alerts module installs a status provider; the map carries what it says.
+    // The alerts module installs a status provider (server/container.ts); the map carries what it says.
     t.services.farms.useUnitStatusProvider(async (q) => new Map(q.units.map((u) => [u.id, u.lastReadingAt ? 'watch' : 'silent'])));
-    try {
-      const withStatus = await admin.get(`/api/farms/${id}/status`);
-      const statuses = Object.fromEntries(withStatus.body.units.map((u: { code: string; status: string }) => [u.code, u.status]));
-      expect(statuses).toEqual({ P1: 'watch', T1: 'silent' });
-    } finally {
-      t.services.farms.useUnitStatusProvider(async () => new Map());
-    }
+    const withStatus = await admin.get(`/api/farms/${id}/status`);
+    const statuses = Object.fromEntries(withStatus.body.units.map((u: { code: string; status: string }) => [u.code, u.status]));
+    expect(statuses).toEqual({ P1: 'watch', T1: 'silent' });
   });
 
   it('answers the farm map to every role on the farm and 404 to a stranger', async () => {

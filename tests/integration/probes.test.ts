@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mqtt, { type MqttClient } from 'mqtt';
@@ -163,8 +163,15 @@ describe('probe registration and credentials', () => {
     const unit = await manager.get(`/api/farms/${farmId}/units/${unitId}`);
     expect(entry()?.unitCode).toBe(unit.body.code);
 
+    expect(entry()).toMatchObject({ farmTimeZone: 'America/Chicago', latitude: expect.any(Number), longitude: expect.any(Number) });
+
+    // Someone gave the probe a simulator scenario in the file: rotation keeps it.
+    const file = JSON.parse(readFileSync(credFile, 'utf8')) as { probes: Array<{ probeKey: string; scenario: string }> };
+    file.probes.find((p) => p.probeKey === probe.probeKey)!.scenario = 'drift';
+    writeFileSync(credFile, JSON.stringify(file), { mode: 0o600 });
     const rotated = await manager.post(`/api/farms/${farmId}/probes/${probe.id}/credential`);
-    expect(entry()?.secret).toBe(rotated.body.credential.secret);
+    expect(entry()).toMatchObject({ secret: rotated.body.credential.secret, scenario: 'drift' });
+    expect(statSync(credFile).mode & 0o777).toBe(0o600);
     const off = await manager.post(`/api/farms/${farmId}/probes/${probe.id}/deactivate`);
     expect(off.status).toBe(200);
     expect(entry()).toBeUndefined();
@@ -284,13 +291,11 @@ describe('probe health', () => {
       lastReadingAt: new Date(now.getTime() - 12 * MIN).toISOString(),
     });
 
-    const w = await manager
-      .post(`/api/farms/${farmId}/probes/${probe.id}/maintenance-windows`)
-      .send({
-        startsAt: new Date(now.getTime() - 30 * MIN).toISOString(),
-        endsAt: new Date(now.getTime() + 60 * MIN).toISOString(),
-        reason: 'cleaning the DO membrane',
-      });
+    const w = await manager.post(`/api/farms/${farmId}/probes/${probe.id}/maintenance-windows`).send({
+      startsAt: new Date(now.getTime() - 30 * MIN).toISOString(),
+      endsAt: new Date(now.getTime() + 60 * MIN).toISOString(),
+      reason: 'cleaning the DO membrane',
+    });
     expect(w.status).toBe(201);
     expect(w.body.current).toBe(true);
     const inWindow = await healthOf(probe.id, now);
