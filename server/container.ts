@@ -31,6 +31,7 @@ import { ObservationsRepository } from './modules/observations/observations.repo
 import { ObservationsService } from './modules/observations/observations.service';
 import { TasksRepository } from './modules/tasks/tasks.repository';
 import { TasksService } from './modules/tasks/tasks.service';
+import { createAlerting } from './modules/alerts/alert-services';
 import { createStockAndFeedServices } from './modules/feed/compose';
 
 export type CoreDeps = {
@@ -68,8 +69,10 @@ export function createServices(deps: CoreDeps) {
   const treatments = new TreatmentsService(new TreatmentsRepository(deps.ds), deps.queues, auditSink);
   const observations = new ObservationsService(new ObservationsRepository(deps.ds), deps.queues, live);
   const tasks = new TasksService(new TasksRepository(deps.ds));
+  const alerting = createAlerting({ ds: deps.ds, queues: deps.queues, logger: deps.logger, publicUrl: deps.config.PUBLIC_URL, live, notifications, audit, farms, units, probes, readings, tasks });
+  farms.useUnitStatusProvider(alerting.unitStatus);
   const stockAndFeed = createStockAndFeedServices({ ds: deps.ds, queues: deps.queues, live, audit: auditSink, logger: deps.logger, waterTests, treatments, observations });
-  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed };
+  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting };
 }
 
 export type Services = ReturnType<typeof createServices>;

@@ -9,6 +9,7 @@ import { taskRoutes } from '../modules/tasks/tasks.router';
 import { stockRoutes } from '../modules/stock/stock.router';
 import { feedRoutes } from '../modules/feed/feed.router';
 import { auditRoutes } from '../modules/audit/audit.router';
+import { alertingRoutes } from '../modules/alerts/alerting.router';
 import { farmsRoutes } from '../modules/farms/farms.router';
 import { unitsRoutes } from '../modules/units/units.router';
 import { probesRoutes } from '../modules/probes/probes.router';
@@ -34,5 +35,6 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...probesRoutes(services.probes, deps.broker),
     ...readingsRoutes(services.readings),
     ...auditRoutes(services.audit),
+    ...alertingRoutes(services),
   ];
 }
