@@ -21,7 +21,6 @@ import { ProbesService } from './modules/probes/probes.service';
 import { ProbeHealthRepository } from './modules/probes/probe-health.repository';
 import { ProbeHealthService } from './modules/probes/probe-health.service';
 import { ProbeCredentialFileStore } from './modules/probes/probe-credential-file';
-import { AuditEvent } from './db/entities';
 import { LiveService } from './modules/live/live.service';
 import { WaterTestsRepository } from './modules/water-tests/water-tests.repository';
 import { WaterTestsService, type AuditSink } from './modules/water-tests/water-tests.service';
@@ -33,6 +32,10 @@ import { TasksRepository } from './modules/tasks/tasks.repository';
 import { TasksService } from './modules/tasks/tasks.service';
 import { createAlerting } from './modules/alerts/alert-services';
 import { createStockAndFeedServices } from './modules/feed/compose';
+import { createImportsService } from './modules/imports/compose';
+import { createExportsService } from './modules/exports/compose';
+import { createRecordsService } from './modules/records/compose';
+import { createOutboxService } from './modules/outbox/compose';
 
 export type CoreDeps = {
   config: Env;
@@ -61,18 +64,46 @@ export function createServices(deps: CoreDeps) {
   const credentialFile = deps.config.PROBE_CREDENTIALS_FILE ? new ProbeCredentialFileStore(deps.config.PROBE_CREDENTIALS_FILE, `mqtt://${deps.config.MQTT_HOST}:${deps.config.MQTT_PORT}`) : null;
   const probes = new ProbesService(probesRepository, probeHealth, audit, farms, units, credentialFile, deps.logger);
   const live = new LiveService(deps.redis, deps.config.QUEUE_PREFIX, deps.logger);
-  // Interim audit sink until the audit module's service is wired in.
-  const auditSink: AuditSink = {
-    record: (e) => deps.ds.getRepository(AuditEvent).save(deps.ds.getRepository(AuditEvent).create({ ...e, at: new Date() })),
-  };
+  const auditSink: AuditSink = audit;
   const waterTests = new WaterTestsService(new WaterTestsRepository(deps.ds), deps.queues, live, auditSink, deps.logger);
   const treatments = new TreatmentsService(new TreatmentsRepository(deps.ds), deps.queues, auditSink);
   const observations = new ObservationsService(new ObservationsRepository(deps.ds), deps.queues, live);
   const tasks = new TasksService(new TasksRepository(deps.ds));
   const alerting = createAlerting({ ds: deps.ds, queues: deps.queues, logger: deps.logger, publicUrl: deps.config.PUBLIC_URL, live, notifications, audit, farms, units, probes, readings, tasks });
   farms.useUnitStatusProvider(alerting.unitStatus);
-  const stockAndFeed = createStockAndFeedServices({ ds: deps.ds, queues: deps.queues, live, audit: auditSink, logger: deps.logger, waterTests, treatments, observations });
-  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting };
+  farms.useLatestResultProvider(async ({ units }) => {
+    const rows = await waterTests.latestResultsOf(units.map((u) => u.id));
+    return new Map(
+      rows.map((r) => {
+        const peak = r.forecastPeak as { nh3MgL: number; nh3NMgL: number; at: string; localTime: string } | null;
+        return [
+          r.unitId,
+          {
+            id: r.id,
+            waterTestId: r.waterTestId,
+            sampledAt: r.sampledAt.toISOString(),
+            status: r.status,
+            tanMgL: r.tanMgL,
+            nh3NMgL: r.nh3NMgL,
+            nh3MgL: r.nh3MgL,
+            ph: r.ph,
+            temperatureC: r.temperatureC,
+            salinityPpt: r.salinityPpt,
+            method: r.method,
+            forecastPeak: peak ? { nh3MgL: peak.nh3MgL, nh3NMgL: peak.nh3NMgL, at: peak.at, localTime: peak.localTime } : null,
+            flags: r.flags,
+          },
+        ];
+      }),
+    );
+  });
+  const stockAndFeed = createStockAndFeedServices({ ds: deps.ds, queues: deps.queues, live, audit, logger: deps.logger, waterTests, treatments, observations, farms, units });
+  stockAndFeed.feed.useAlertSource(alerting.alerts);
+  const imports = createImportsService({ ds: deps.ds, redis: deps.redis, queues: deps.queues, audit, logger: deps.logger, config: deps.config });
+  const csvExports = createExportsService(deps.ds);
+  const records = createRecordsService(deps.ds);
+  const outbox = createOutboxService(deps.ds, deps.config.MAIL_FAKE_API_URL, deps.logger);
+  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting, imports, csvExports, records, outbox };
 }
 
 export type Services = ReturnType<typeof createServices>;

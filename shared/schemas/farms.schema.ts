@@ -116,6 +116,9 @@ export const latestResultSchema = z.object({
   temperatureC: z.number().nullable(),
   salinityPpt: z.number().nullable(),
   method: z.string().nullable(),
+  /** Today's forecast peak from the unit's diurnal curve, when there was enough probe history. */
+  forecastPeak: z.object({ nh3MgL: z.number(), nh3NMgL: z.number(), at: isoTime, localTime: z.string() }).nullable().optional(),
+  flags: z.array(z.object({ code: z.string(), message: z.string() })).optional(),
 });
 export type LatestResult = z.infer<typeof latestResultSchema>;
 

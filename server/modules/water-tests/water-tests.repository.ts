@@ -57,6 +57,15 @@ export class WaterTestsRepository {
   latestResult(unitId: string): Promise<FreeAmmoniaResult | null> {
     return this.ds.getRepository(FreeAmmoniaResult).findOne({ where: { unitId, status: 'ok' }, order: { sampledAt: 'DESC' } });
   }
+  /** The newest computed result of each unit (one DISTINCT ON over the (unit, sampled_at) index). */
+  async latestResultsOf(unitIds: string[]): Promise<FreeAmmoniaResult[]> {
+    if (!unitIds.length) return [];
+    const ids = (await this.ds.query(
+      `SELECT DISTINCT ON (unit_id) id FROM free_ammonia_results WHERE unit_id = ANY($1::uuid[]) ORDER BY unit_id, sampled_at DESC`,
+      [unitIds],
+    )) as Array<{ id: string }>;
+    return ids.length ? this.ds.getRepository(FreeAmmoniaResult).findBy({ id: In(ids.map((r) => r.id)) }) : [];
+  }
   listResults(unitId: string, limit: number): Promise<FreeAmmoniaResult[]> {
     return this.ds.getRepository(FreeAmmoniaResult).find({ where: { unitId }, order: { sampledAt: 'DESC' }, take: limit });
   }

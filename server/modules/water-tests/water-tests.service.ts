@@ -152,6 +152,11 @@ export class WaterTestsService {
     return this.repo.latestResult(unitId);
   }
 
+  /** Newest result per unit, for the farm map. */
+  latestResultsOf(unitIds: string[]): Promise<FreeAmmoniaResult[]> {
+    return this.repo.latestResultsOf(unitIds);
+  }
+
   latestTestOf(unitId: string, analyte: string): Promise<WaterTest | null> {
     return this.repo.latestTestOf(unitId, analyte);
   }
