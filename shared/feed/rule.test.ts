@@ -56,6 +56,13 @@ describe('the feed-cut rule', () => {
     expect(d.cutPct).toBe(75);
   });
 
+  it('keeps the cut on a flagged kit result and passes the flag on', () => {
+    const flagged = { nh3MgL: 0.06, localTime: '09:00', day: '2026-06-10', ageHours: 2, flags: ['May read high — re-test with a salicylate kit.'] };
+    const d = decideFeed(clear({ ammonia: ammonia({ latest: flagged }) }), defaultFeedRule);
+    expect(d.cutPct).toBe(50);
+    expect(d.reasons.find((r) => r.code === 'nh3_result_flagged')?.text).toBe('About the latest result: May read high — re-test with a salicylate kit.');
+  });
+
   it('reports an old result without acting on it', () => {
     const d = decideFeed(clear({ ammonia: ammonia({ latest: { nh3MgL: 0.09, localTime: '09:00', day: '2026-05-01', ageHours: 24 * 20 } }) }), defaultFeedRule);
     expect(d.action).toBe('feed');

@@ -141,7 +141,7 @@ export type FeedSignals = {
     /** Levels as NH3 (mg/L), from the unit's threshold profile. */
     watchNh3MgL: number | null;
     actNh3MgL: number | null;
-    latest: { nh3MgL: number; localTime: string; day: string; ageHours: number } | null;
+    latest: { nh3MgL: number; localTime: string; day: string; ageHours: number; flags?: string[] | undefined } | null;
     forecast: { nh3MgL: number; localTime: string; day: string } | null;
     /** Oldest → newest NH3 of the last results (for the trend). */
     recentNh3MgL: number[];
@@ -256,7 +256,7 @@ function decide(s: FeedSignals, rule: FeedRule): FeedDecision {
   // Free ammonia: the higher of the latest result and today's forecast peak against the profile's levels.
   const a = s.ammonia;
   if (!a.latest) {
-    add('no_ammonia_result', 'note', 'No free-ammonia result yet; test TAN before relying on this ration', null);
+    add('no_ammonia_result', 'note', 'No free-ammonia result to go on (a kit TAN needs a pH and temperature to count); test TAN before relying on this ration', null);
   } else if (a.latest.ageHours > rule.ammonia.maxResultAgeHours) {
     add('ammonia_result_old', 'note', `The latest free-ammonia result is ${Math.round(a.latest.ageHours / 24)} days old (NH3 ${nh3(a.latest.nh3MgL)} mg/L); test TAN before relying on this ration`, null);
   } else if (a.actNh3MgL !== null || a.watchNh3MgL !== null) {
@@ -285,6 +285,8 @@ function decide(s: FeedSignals, rule: FeedRule): FeedDecision {
       }
     }
     if (cut > 0) cuts.push(Math.min(cut, rule.ammonia.maxCutPct));
+    // A kit flag (e.g. Nessler after formalin) does not lift a cut; it says the number may be high.
+    for (const flag of a.latest.flags ?? []) add('nh3_result_flagged', 'note', `About the latest result: ${flag}`, null);
   }
 
   // Raceways: reduced flow, and the ammonia the planned ration would add at the current flow.

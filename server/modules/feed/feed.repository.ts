@@ -2,7 +2,6 @@ import { Between, In, LessThanOrEqual, Not, type DataSource } from 'typeorm';
 import {
   Alert,
   CultureUnit,
-  Farm,
   FeedingRecord,
   FeedingTable,
   FeedRecommendation,
@@ -22,18 +21,9 @@ export type ProposalRow = Pick<
 export class FeedRepository {
   constructor(private readonly ds: DataSource) {}
 
-  findFarm(farmId: string): Promise<Farm | null> {
-    return this.ds.getRepository(Farm).findOneBy({ id: farmId });
-  }
-  findUnit(farmId: string, unitId: string): Promise<CultureUnit | null> {
-    return this.ds.getRepository(CultureUnit).findOneBy({ id: unitId, farmId });
-  }
+  /** The farm's units as entities, in walk order (the units service lists presented units). */
   unitsOfFarm(farmId: string): Promise<CultureUnit[]> {
     return this.ds.getRepository(CultureUnit).find({ where: { farmId }, order: { walkOrder: 'ASC', code: 'ASC' } });
-  }
-  unitsByIds(ids: string[]): Promise<CultureUnit[]> {
-    if (!ids.length) return Promise.resolve([]);
-    return this.ds.getRepository(CultureUnit).findBy({ id: In(ids) });
   }
 
   // --- feeding tables and the farm's rule overrides ---

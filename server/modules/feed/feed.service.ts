@@ -27,12 +27,12 @@ import {
 } from '../../../shared/feed';
 import { feedRuleOverridesFrom, type AmmoniaLoadDto, type LoadingDto, type OverrideRecommendation, type RationPlanDto } from '../../../shared/schemas/feed.schema';
 import { NH3_PER_NH3_N } from '../../../shared/units';
-import { defaultFarmSettings, type CultureUnit, type Farm, type FeedingRecord, type FeedingTable, type FeedRecommendation, type FreeAmmoniaResult, type Observation, type Treatment } from '../../db/entities';
+import type { CultureUnit, FarmSettings, FeedingRecord, FeedingTable, FeedRecommendation, FreeAmmoniaResult, Observation, Treatment } from '../../db/entities';
 import { badRequest, notFound } from '../../http/errors';
 import type { Logger } from '../../lib/logger';
 import type { LiveService } from '../live/live.service';
 import { presentEstimate } from '../stock/stock.presenter';
-import type { AuditRecorder, StockService, UnitEstimate } from '../stock/stock.service';
+import type { AuditRecorder, FarmDirectory, StockService, UnitDirectory, UnitEstimate } from '../stock/stock.service';
 import type { FeedingTablesService } from './feeding-tables.service';
 import type { FeedingsService } from './feedings.service';
 import type { FeedRepository, ProposalRow } from './feed.repository';
@@ -48,6 +48,18 @@ export type AmmoniaResults = {
 };
 export type RecentTreatments = { recent(farmId: string, unitId: string, sinceMs: number, now?: Date): Promise<Treatment[]> };
 export type UnitObservations = { list(farmId: string, unitId: string): Promise<Observation[]> };
+/** The units module's current and design flow of a unit. */
+export type UnitFlows = {
+  latestFlowLpm(unitId: string): Promise<{ flowLpm: number; at: Date; source: 'probe' | 'manual' | 'design' } | null>;
+  designFlowLpm(unitId: string): Promise<number | null>;
+};
+/** The alerts module's open (and acknowledged) alerts of a unit. */
+export type AlertSource = {
+  activeAlerts(farmId: string, filter: { unitId?: string; kinds?: string[] }): Promise<Array<{ id: string; kind: string; level: 'watch' | 'act'; title: string; openedAt: string }>>;
+};
+
+/** What the feed module needs to know of a farm. */
+export type FarmContext = { id: string; timeZone: string; settings: FarmSettings };
 
 export type TemperatureBasis = RationPlanDto['temperature'];
 
@@ -56,7 +68,7 @@ export type UnitPlan = {
   day: string;
   today: string;
   refAt: Date;
-  farm: Farm;
+  farm: FarmContext;
   unit: CultureUnit;
   rule: FeedRule;
   biomass: UnitEstimate;
@@ -92,6 +104,8 @@ export const RATION_CAUTION =
 export class FeedService {
   constructor(
     private readonly repo: FeedRepository,
+    private readonly farms: FarmDirectory,
+    private readonly units: UnitDirectory & UnitFlows,
     private readonly stock: StockService,
     private readonly feedings: FeedingsService,
     private readonly tables: FeedingTablesService,
@@ -103,14 +117,25 @@ export class FeedService {
     private readonly logger: Logger,
   ) {}
 
-  private async farmOrThrow(farmId: string): Promise<Farm> {
-    const farm = await this.repo.findFarm(farmId);
-    if (!farm) throw notFound('Farm');
-    return farm;
+  private alertSource: AlertSource | null = null;
+
+  /** Installed by the composition root once the alerts module is wired; until then open alerts are read directly. */
+  useAlertSource(source: AlertSource): void {
+    this.alertSource = source;
+  }
+
+  private async farmOrThrow(farmId: string): Promise<FarmContext> {
+    const [settings, timeZone] = await Promise.all([this.farms.getSettings(farmId), this.farms.timeZone(farmId)]);
+    return { id: farmId, timeZone, settings };
+  }
+
+  private async openDoAlerts(farmId: string, unitId: string, kinds: string[]): Promise<Array<{ id: string; kind: string; level: 'watch' | 'act'; title: string; openedAt: string }>> {
+    if (this.alertSource) return this.alertSource.activeAlerts(farmId, { unitId, kinds });
+    return (await this.repo.openAlerts(unitId, kinds)).map((a) => ({ id: a.id, kind: a.kind, level: a.level, title: a.title, openedAt: a.openedAt.toISOString() }));
   }
 
   /** The farm-local day asked for (today by default), checked to be within the days rations are kept for. */
-  private dayOf(farm: Farm, day: string | undefined, now: Date): { day: string; today: string; refAt: Date } {
+  private dayOf(farm: FarmContext, day: string | undefined, now: Date): { day: string; today: string; refAt: Date } {
     const today = localDay(now, farm.timeZone);
     const d = day ?? today;
     const offset = daysBetween(today, d);
@@ -122,15 +147,10 @@ export class FeedService {
     return { day: d, today, refAt };
   }
 
-  today(farm: Farm, now = new Date()): string {
-    return localDay(now, farm.timeZone);
-  }
-
   /** Works out one unit's ration, loading, ammonia load and proposal for a day. Stores nothing. */
   async planUnit(farmId: string, unitId: string, dayIn?: string, now = new Date()): Promise<UnitPlan> {
     const farm = await this.farmOrThrow(farmId);
-    const unit = await this.repo.findUnit(farmId, unitId);
-    if (!unit) throw notFound('Unit');
+    const unit = await this.units.require(farmId, unitId);
     const { day, today, refAt } = this.dayOf(farm, dayIn, now);
     const tz = farm.timeZone;
     const local = (d: Date) => {
@@ -138,7 +158,7 @@ export class FeedService {
       return hhmm(p.hour, p.minute);
     };
     const rule = mergeFeedRule(feedRuleOverridesFrom(farm.settings));
-    const settings = { ...defaultFarmSettings, ...farm.settings };
+    const settings = farm.settings;
     const species = unit.species ?? 'unknown';
 
     const [biomass, table, probeIds, profile, okResults] = await Promise.all([
@@ -215,7 +235,7 @@ export class FeedService {
     const [doLatest, doDawn, alerts] = await Promise.all([
       this.repo.latestReading(probeIds, 'dissolved_oxygen', new Date(refAt.getTime() - rule.doMaxAgeHours * HOUR), refAt),
       dawnFrom <= dawnTo ? this.repo.lowestReading(probeIds, 'dissolved_oxygen', dawnFrom, dawnTo) : Promise.resolve(null),
-      day === today ? this.repo.openAlerts(unitId, rule.doAlertKinds) : Promise.resolve([]),
+      day === today ? this.openDoAlerts(farmId, unitId, rule.doAlertKinds) : Promise.resolve([]),
     ]);
     const profileRules = (profile?.rules ?? []) as ProfileRule[];
     const doRule = profileRules.find((r) => r.metric === 'do_min');
@@ -247,20 +267,13 @@ export class FeedService {
     const isRaceway = unit.kind === 'raceway';
     const hasFlow = unit.kind === 'raceway' || unit.kind === 'tank';
     const recent = new Date(refAt.getTime() - rule.raceway.flowReadingMaxAgeHours * HOUR);
-    const [flowProbe, flowMeasured, flowDesign, phLatest, tempLatest] = await Promise.all([
-      hasFlow ? this.repo.latestReading(probeIds, 'flow', recent, refAt) : Promise.resolve(null),
-      hasFlow ? this.repo.latestFlowMeasurement(unitId, refAt) : Promise.resolve(null),
-      hasFlow ? this.repo.latestFlowMeasurement(unitId, refAt, 'design') : Promise.resolve(null),
+    const [flowNow, phLatest, tempLatest] = await Promise.all([
+      hasFlow ? this.flowAt(unitId, probeIds, refAt, refAt.getTime() === now.getTime(), recent) : Promise.resolve(null),
       this.repo.latestReading(probeIds, 'ph', recent, refAt),
       this.repo.latestReading(probeIds, 'water_temperature', recent, refAt),
     ]);
-    const designFlowLpm = flowDesign?.flowLpm ?? null;
-    const flow = (() => {
-      if (!hasFlow) return null;
-      if (flowProbe) return { flowLpm: flowProbe.value, source: 'probe' as const, at: flowProbe.at };
-      if (flowMeasured) return { flowLpm: flowMeasured.flowLpm, source: flowMeasured.source === 'design' ? ('design' as const) : ('measurement' as const), at: flowMeasured.measuredAt };
-      return { flowLpm: null, source: 'none' as const, at: null };
-    })();
+    const designFlowLpm = flowNow?.designFlowLpm ?? null;
+    const flow = flowNow?.flow ?? null;
     const flowDto = flow
       ? {
           flowLpm: round(flow.flowLpm, 1),
@@ -303,7 +316,13 @@ export class FeedService {
         watchNh3MgL: levels?.watchNh3MgL ?? null,
         actNh3MgL: levels?.actNh3MgL ?? null,
         latest: latestResult
-          ? { nh3MgL: latestResult.nh3MgL as number, localTime: local(latestResult.sampledAt), day: localDay(latestResult.sampledAt, tz), ageHours: (refAt.getTime() - latestResult.sampledAt.getTime()) / HOUR }
+          ? {
+              nh3MgL: latestResult.nh3MgL as number,
+              localTime: local(latestResult.sampledAt),
+              day: localDay(latestResult.sampledAt, tz),
+              ageHours: (refAt.getTime() - latestResult.sampledAt.getTime()) / HOUR,
+              flags: (latestResult.flags ?? []).map((f) => f.message),
+            }
           : null,
         forecast:
           forecastPeak && typeof forecastPeak.nh3MgL === 'number' && forecastPeak.at
@@ -350,13 +369,13 @@ export class FeedService {
         latest: doLatest ? { mgL: doLatest.value, at: doLatest.at.toISOString() } : null,
         dawnWindow: { from: dawnFrom.toISOString(), to: dawnTo.toISOString() },
         dawnLow: doDawn ? { mgL: doDawn.value, at: doDawn.at.toISOString() } : null,
-        openAlerts: alerts.map((a) => ({ id: a.id, kind: a.kind, level: a.level, title: a.title, openedAt: a.openedAt.toISOString() })),
+        openAlerts: alerts.map((a) => ({ id: a.id, kind: a.kind, level: a.level, title: a.title, openedAt: a.openedAt })),
       },
       ammonia: {
         levels,
         profileId: profile?.id ?? null,
         latest: latestResult
-          ? { resultId: latestResult.id, waterTestId: latestResult.waterTestId, sampledAt: latestResult.sampledAt.toISOString(), tanMgL: latestResult.tanMgL, nh3MgL: latestResult.nh3MgL, nh3NMgL: latestResult.nh3NMgL, pH: latestResult.ph, temperatureC: latestResult.temperatureC, salinityPpt: latestResult.salinityPpt }
+          ? { resultId: latestResult.id, waterTestId: latestResult.waterTestId, sampledAt: latestResult.sampledAt.toISOString(), tanMgL: latestResult.tanMgL, nh3MgL: latestResult.nh3MgL, nh3NMgL: latestResult.nh3NMgL, pH: latestResult.ph, temperatureC: latestResult.temperatureC, salinityPpt: latestResult.salinityPpt, flags: latestResult.flags }
           : null,
         forecastPeak: forecastPeak ?? null,
         recent: okResults.slice(0, rule.ammonia.trendResults).map((r) => ({ resultId: r.id, sampledAt: r.sampledAt.toISOString(), nh3MgL: r.nh3MgL })),
@@ -373,6 +392,31 @@ export class FeedService {
       loading,
     };
     return { day, today, refAt, farm, unit, rule, biomass, table, plan, planDto, loading, ammoniaLoad, signals, decision, inputs };
+  }
+
+  /**
+   * The unit's flow: now, the units module's current flow (newest probe reading or measurement); for a
+   * past day, the probe reading of its last hours or else the latest measurement before its end.
+   */
+  private async flowAt(unitId: string, probeIds: string[], refAt: Date, isNow: boolean, recent: Date) {
+    type Flow = { flowLpm: number | null; source: 'probe' | 'measurement' | 'design' | 'none'; at: Date | null };
+    const none: Flow = { flowLpm: null, source: 'none', at: null };
+    if (isNow) {
+      const [latest, designFlowLpm] = await Promise.all([this.units.latestFlowLpm(unitId), this.units.designFlowLpm(unitId)]);
+      const flow: Flow = latest ? { flowLpm: latest.flowLpm, source: latest.source === 'manual' ? 'measurement' : latest.source, at: latest.at } : none;
+      return { flow, designFlowLpm };
+    }
+    const [probe, measured, design] = await Promise.all([
+      this.repo.latestReading(probeIds, 'flow', recent, refAt),
+      this.repo.latestFlowMeasurement(unitId, refAt),
+      this.repo.latestFlowMeasurement(unitId, refAt, 'design'),
+    ]);
+    const flow: Flow = probe
+      ? { flowLpm: probe.value, source: 'probe', at: probe.at }
+      : measured
+        ? { flowLpm: measured.flowLpm, source: measured.source === 'design' ? 'design' : 'measurement', at: measured.measuredAt }
+        : none;
+    return { flow, designFlowLpm: design?.flowLpm ?? null };
   }
 
   /** TAN from the ration; for a raceway the rise at the current flow, the outlet NH3, and the most feed under target. */

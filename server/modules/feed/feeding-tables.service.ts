@@ -3,19 +3,20 @@ import { feedRuleOverridesFrom, type FeedRulePatch, type PatchFeedingTable } fro
 import type { FeedingTable, FeedingTableRow } from '../../db/entities';
 import { badRequest, notFound } from '../../http/errors';
 import type { Queues } from '../../queues';
-import type { AuditRecorder } from '../stock/stock.service';
+import type { AuditRecorder, FarmDirectory } from '../stock/stock.service';
 import type { FeedRepository } from './feed.repository';
 
 /** Feeding tables per species and the farm's feed rule (defaults with the farm's overrides). */
 export class FeedingTablesService {
   constructor(
     private readonly repo: FeedRepository,
+    private readonly farms: FarmDirectory,
     private readonly queues: Queues,
     private readonly audit: AuditRecorder,
   ) {}
 
   async list(farmId: string): Promise<FeedingTable[]> {
-    if (!(await this.repo.findFarm(farmId))) throw notFound('Farm');
+    await this.farms.timeZone(farmId);
     return this.repo.tablesOfFarm(farmId);
   }
 
@@ -45,9 +46,8 @@ export class FeedingTablesService {
   }
 
   async rule(farmId: string): Promise<{ version: string; rule: FeedRule; defaults: FeedRule; overrides: FeedRulePatch }> {
-    const farm = await this.repo.findFarm(farmId);
-    if (!farm) throw notFound('Farm');
-    const overrides = feedRuleOverridesFrom(farm.settings);
+    // The overrides live under the farm settings' `feedRule` key (the farms module passes unknown keys through).
+    const overrides = feedRuleOverridesFrom(await this.farms.getSettings(farmId));
     return { version: FEED_RULE_VERSION, rule: mergeFeedRule(overrides), defaults: defaultFeedRule, overrides };
   }
 

@@ -1,9 +1,9 @@
 import { localDay, zonedTime } from '../../../shared/farm-time';
 import type { CreateFeeding } from '../../../shared/schemas/feed.schema';
 import type { FeedingRecord } from '../../db/entities';
-import { badRequest, notFound } from '../../http/errors';
+import { badRequest } from '../../http/errors';
 import type { LiveService } from '../live/live.service';
-import type { AuditRecorder, FeedLedger } from '../stock/stock.service';
+import type { AuditRecorder, FarmDirectory, FeedLedger, UnitDirectory } from '../stock/stock.service';
 import type { FeedRepository } from './feed.repository';
 
 /** Fed amounts may differ from the approved ration by this share before a reason is required. */
@@ -13,6 +13,8 @@ export const FEEDING_TOLERANCE = 0.1;
 export class FeedingsService implements FeedLedger {
   constructor(
     private readonly repo: FeedRepository,
+    private readonly farms: FarmDirectory,
+    private readonly units: UnitDirectory,
     private readonly live: LiveService,
     private readonly audit: AuditRecorder,
   ) {}
@@ -24,9 +26,9 @@ export class FeedingsService implements FeedLedger {
    * planner has not decided) by more than 10 %.
    */
   async record(farmId: string, unitId: string, input: CreateFeeding, actorId: string | null): Promise<{ feeding: FeedingRecord; replaced: boolean }> {
-    const [unit, farm] = await Promise.all([this.repo.findUnit(farmId, unitId), this.repo.findFarm(farmId)]);
-    if (!unit || !farm) throw notFound('Unit');
-    const today = localDay(new Date(), farm.timeZone);
+    await this.units.require(farmId, unitId);
+    const timeZone = await this.farms.timeZone(farmId);
+    const today = localDay(new Date(), timeZone);
     if (input.day > today) throw badRequest('That day has not come yet on this farm.', { fieldErrors: { day: [`after today (${today})`] } }, 'validation_failed');
     const rec = await this.repo.recommendationOf(unitId, input.day);
     const target = rec ? (rec.status === 'pending' ? rec.recommendedKg : rec.approvedKg) : null;
@@ -43,7 +45,7 @@ export class FeedingsService implements FeedLedger {
       }
     }
     // Without a time, a feeding of a past day counts at its local noon, today's at the moment it is recorded.
-    const fedAt = input.fedAt ? new Date(input.fedAt) : input.day === today ? new Date() : zonedTime(input.day, 12, 0, farm.timeZone);
+    const fedAt = input.fedAt ? new Date(input.fedAt) : input.day === today ? new Date() : zonedTime(input.day, 12, 0, timeZone);
     const existing = await this.repo.findFeeding(unitId, input.day);
     const values = { fedKg: input.fedKg, withheld: input.withheld, reason, response: input.response ?? null, fedAt, recordedById: actorId };
     const before = existing ? snapshot(existing) : null;
@@ -62,8 +64,7 @@ export class FeedingsService implements FeedLedger {
   }
 
   async list(farmId: string, unitId: string, q: { from?: string | undefined; to?: string | undefined }): Promise<FeedingRecord[]> {
-    const unit = await this.repo.findUnit(farmId, unitId);
-    if (!unit) throw notFound('Unit');
+    await this.units.require(farmId, unitId);
     return this.repo.feedingsOfUnit(unitId, q.from ?? '1970-01-01', q.to ?? '9999-12-31');
   }
 

@@ -1,15 +1,10 @@
 import { In, type DataSource } from 'typeorm';
-import { CultureUnit, Farm, StockEvent } from '../../db/entities';
+import { CultureUnit, StockEvent } from '../../db/entities';
 
 export class StockRepository {
   constructor(private readonly ds: DataSource) {}
 
-  findUnit(farmId: string, unitId: string): Promise<CultureUnit | null> {
-    return this.ds.getRepository(CultureUnit).findOneBy({ id: unitId, farmId });
-  }
-  findFarm(farmId: string): Promise<Farm | null> {
-    return this.ds.getRepository(Farm).findOneBy({ id: farmId });
-  }
+  /** The farm's units as entities, in walk order (the units service lists presented units). */
   unitsOfFarm(farmId: string): Promise<CultureUnit[]> {
     return this.ds.getRepository(CultureUnit).find({ where: { farmId }, order: { walkOrder: 'ASC', code: 'ASC' } });
   }

@@ -2,8 +2,8 @@ import { biomassAt, fcrPeriods, mergeFeedRule, stockTimeline, type BiomassEstima
 import { localDay } from '../../../shared/farm-time';
 import { feedRuleOverridesFrom } from '../../../shared/schemas/feed.schema';
 import type { CreateStockEvent } from '../../../shared/schemas/stock.schema';
-import type { CultureUnit, Farm, StockEvent } from '../../db/entities';
-import { badRequest, conflict, notFound } from '../../http/errors';
+import type { CultureUnit, FarmSettings, StockEvent } from '../../db/entities';
+import { AppError, badRequest, conflict } from '../../http/errors';
 import type { Queues } from '../../queues';
 import type { StockRepository } from './stock.repository';
 
@@ -16,6 +16,15 @@ export type AuditRecorder = {
 export type WithdrawalCheck = {
   withdrawalStatus(farmId: string, unitId: string, at?: Date): Promise<{ inWithdrawal: boolean; endsAt: string | null; reason: string | null; treatmentId: string | null }>;
 };
+
+/** The farms module's settings and time zone of a farm (404 for an unknown farm). */
+export type FarmDirectory = {
+  getSettings(farmId: string): Promise<FarmSettings>;
+  timeZone(farmId: string): Promise<string>;
+};
+
+/** The units module's check that a unit is on a farm (404 otherwise). */
+export type UnitDirectory = { require(farmId: string, unitId: string): Promise<CultureUnit> };
 
 /** What was fed between two instants (the feed module's feeding records). */
 export type FeedLedger = {
@@ -57,16 +66,29 @@ export const toStockInput = (e: StockEvent): StockEventInput => ({
 export class StockService {
   constructor(
     private readonly repo: StockRepository,
+    private readonly farms: FarmDirectory,
+    private readonly units: UnitDirectory,
     private readonly feedLedger: FeedLedger,
     private readonly withdrawal: WithdrawalCheck,
     private readonly queues: Queues,
     private readonly audit: AuditRecorder,
   ) {}
 
-  private async unitOrThrow(farmId: string, unitId: string): Promise<CultureUnit> {
-    const unit = await this.repo.findUnit(farmId, unitId);
-    if (!unit) throw notFound('Unit');
-    return unit;
+  private unitOrThrow(farmId: string, unitId: string): Promise<CultureUnit> {
+    return this.units.require(farmId, unitId);
+  }
+
+  private async unitOnFarm(farmId: string, unitId: string): Promise<CultureUnit | null> {
+    try {
+      return await this.units.require(farmId, unitId);
+    } catch (err) {
+      if (err instanceof AppError && err.status === 404) return null;
+      throw err;
+    }
+  }
+
+  private async staleDays(farmId: string): Promise<number> {
+    return mergeFeedRule(feedRuleOverridesFrom(await this.farms.getSettings(farmId))).weightStaleDays;
   }
 
   /**
@@ -79,15 +101,15 @@ export class StockService {
     const at = input.at ? new Date(input.at) : new Date();
     let related: CultureUnit | null = null;
     if (input.kind === 'transfer_out') {
-      related = input.relatedUnitId ? await this.repo.findUnit(farmId, input.relatedUnitId) : null;
+      related = input.relatedUnitId ? await this.unitOnFarm(farmId, input.relatedUnitId) : null;
       if (!related) throw badRequest('The receiving unit is not on this farm.', { fieldErrors: { relatedUnitId: ['not a unit of this farm'] } }, 'validation_failed');
       if (related.id === unit.id) throw badRequest('A transfer needs another unit.', { fieldErrors: { relatedUnitId: ['the same unit'] } }, 'validation_failed');
     }
     if (input.kind === 'harvest' || input.kind === 'transfer_out') {
       const w = await this.withdrawal.withdrawalStatus(farmId, unitId, at);
       if (w.inWithdrawal) {
-        const farm = await this.repo.findFarm(farmId);
-        const until = w.endsAt ? `until ${localDay(new Date(w.endsAt), farm?.timeZone ?? 'UTC')}` : 'until the logged temperatures reach its degree-days';
+        const timeZone = await this.farms.timeZone(farmId);
+        const until = w.endsAt ? `until ${localDay(new Date(w.endsAt), timeZone)}` : 'until the logged temperatures reach its degree-days';
         const what = input.kind === 'harvest' ? 'Harvest' : 'Transfer';
         throw conflict(`${what} refused: ${unit.code} is in a withdrawal period ${until}. ${w.reason ?? ''}`.trim(), { withdrawal: w }, 'in_withdrawal');
       }
@@ -145,9 +167,8 @@ export class StockService {
     return (await this.repo.listEvents(unitId)).filter((e) => e.at.getTime() >= from && e.at.getTime() <= to).slice(-q.limit);
   }
 
-  private estimateFrom(unit: CultureUnit, farm: Farm | null, events: StockEvent[], asOf: Date): UnitEstimate {
+  private estimateFrom(unit: CultureUnit, staleDays: number, events: StockEvent[], asOf: Date): UnitEstimate {
     const est = biomassAt(events.map(toStockInput), asOf.toISOString());
-    const staleDays = mergeFeedRule(feedRuleOverridesFrom(farm?.settings)).weightStaleDays;
     const stocked = est.count > 0 && unit.state !== 'fallow';
     let ageWarning: string | null = null;
     if (stocked && est.meanWeightG === null) ageWarning = 'No weight on record: record a sample weighing';
@@ -168,14 +189,14 @@ export class StockService {
   /** Count, mean weight (latest weighing, no growth added), biomass with its uncertainty, density. */
   async estimate(farmId: string, unitId: string, asOf = new Date()): Promise<UnitEstimate> {
     const unit = await this.unitOrThrow(farmId, unitId);
-    const [farm, events] = await Promise.all([this.repo.findFarm(farmId), this.repo.listEvents(unitId)]);
-    return this.estimateFrom(unit, farm, events, asOf);
+    const [staleDays, events] = await Promise.all([this.staleDays(farmId), this.repo.listEvents(unitId)]);
+    return this.estimateFrom(unit, staleDays, events, asOf);
   }
 
   /** History, current biomass and FCR between weighings of one unit. */
   async unitStock(farmId: string, unitId: string, asOf = new Date()): Promise<UnitStock> {
     const unit = await this.unitOrThrow(farmId, unitId);
-    const [farm, events] = await Promise.all([this.repo.findFarm(farmId), this.repo.listEvents(unitId)]);
+    const [staleDays, events] = await Promise.all([this.staleDays(farmId), this.repo.listEvents(unitId)]);
     const inputs = events.map(toStockInput);
     const timeline = stockTimeline(inputs);
     const first = events[0]?.at ?? asOf;
@@ -184,7 +205,7 @@ export class StockService {
       inputs,
       feedings.map((f) => ({ fedAt: f.fedAt.toISOString(), fedKg: f.fedKg })),
     );
-    const current = this.estimateFrom(unit, farm, events, asOf);
+    const current = this.estimateFrom(unit, staleDays, events, asOf);
     const notes = [
       'Mean weight comes from the latest sample weighing; no growth is added between weighings.',
       'The biomass interval is the sampling error of the mean weight (Student t); the count is taken as exact.',
@@ -201,13 +222,12 @@ export class StockService {
 
   /** The current estimate and latest FCR of every unit of the farm. */
   async farmStock(farmId: string, asOf = new Date()): Promise<Array<{ current: UnitEstimate; latestFcr: FcrPeriod | null }>> {
-    const [farm, units] = await Promise.all([this.repo.findFarm(farmId), this.repo.unitsOfFarm(farmId)]);
-    if (!farm) throw notFound('Farm');
+    const [staleDays, units] = await Promise.all([this.staleDays(farmId), this.repo.unitsOfFarm(farmId)]);
     const events = await this.repo.eventsOfUnits(units.map((u) => u.id));
     const out: Array<{ current: UnitEstimate; latestFcr: FcrPeriod | null }> = [];
     for (const unit of units) {
       const own = events.filter((e) => e.unitId === unit.id);
-      const current = this.estimateFrom(unit, farm, own, asOf);
+      const current = this.estimateFrom(unit, staleDays, own, asOf);
       let latestFcr: FcrPeriod | null = null;
       if (own.some((e) => e.kind === 'sample_weighing')) {
         const feedings = await this.feedLedger.fedBetween(unit.id, new Date((own[0]?.at.getTime() ?? asOf.getTime()) - DAY), asOf);
