@@ -8,6 +8,8 @@ import { AuthService } from './modules/auth/auth.service';
 import { NotificationsRepository } from './modules/notifications/notifications.repository';
 import { emailChannel, NotificationsService } from './modules/notifications/notifications.service';
 import type { Queues } from './queues';
+import { PeopleRepository } from './modules/people/people.repository';
+import { PeopleService } from './modules/people/people.service';
 import { AuditRepository } from './modules/audit/audit.repository';
 import { AuditService } from './modules/audit/audit.service';
 import { FarmsRepository } from './modules/farms/farms.repository';
@@ -103,7 +105,8 @@ export function createServices(deps: CoreDeps) {
   const csvExports = createExportsService(deps.ds);
   const records = createRecordsService(deps.ds);
   const outbox = createOutboxService(deps.ds, deps.config.MAIL_FAKE_API_URL, deps.logger);
-  return { notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting, imports, csvExports, records, outbox };
+  const people = new PeopleService(new PeopleRepository(deps.ds), auth, notifications, audit, { publicUrl: deps.config.PUBLIC_URL }, deps.logger);
+  return { people, notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting, imports, csvExports, records, outbox };
 }
 
 export type Services = ReturnType<typeof createServices>;

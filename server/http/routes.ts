@@ -6,6 +6,7 @@ import { waterTestRoutes } from '../modules/water-tests/water-tests.router';
 import { treatmentRoutes } from '../modules/treatments/treatments.router';
 import { observationRoutes } from '../modules/observations/observations.router';
 import { taskRoutes } from '../modules/tasks/tasks.router';
+import { peopleRoutes } from '../modules/people/people.router';
 import { stockRoutes } from '../modules/stock/stock.router';
 import { feedRoutes } from '../modules/feed/feed.router';
 import { auditRoutes } from '../modules/audit/audit.router';
@@ -14,6 +15,10 @@ import { farmsRoutes } from '../modules/farms/farms.router';
 import { unitsRoutes } from '../modules/units/units.router';
 import { probesRoutes } from '../modules/probes/probes.router';
 import { readingsRoutes } from '../modules/readings/readings.router';
+import { importRoutes } from '../modules/imports/imports.router';
+import { exportRoutes } from '../modules/exports/exports.router';
+import { recordsRoutes } from '../modules/records/records.router';
+import { outboxRoutes } from '../modules/outbox/outbox.router';
 import type { CookieOptions } from './build-router';
 import type { RouteDef } from './route-registry';
 
@@ -28,6 +33,7 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...treatmentRoutes(services.treatments),
     ...observationRoutes(services.observations),
     ...taskRoutes(services.tasks),
+    ...peopleRoutes(services.people, services.farms),
     ...stockRoutes(services.stock),
     ...feedRoutes(services),
     ...farmsRoutes(services.farms),
@@ -35,6 +41,10 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...probesRoutes(services.probes, deps.broker),
     ...readingsRoutes(services.readings),
     ...auditRoutes(services.audit),
+    ...importRoutes(services.imports, services.auth),
+    ...exportRoutes(services.csvExports, deps.logger),
+    ...recordsRoutes(services.records, deps.logger),
+    ...outboxRoutes(services.outbox),
     ...alertingRoutes(services),
   ];
 }
