@@ -8,6 +8,7 @@ import { insertReadings } from '../factories/readings';
 import { signedIn } from '../factories/session';
 import { listMail, waitForMail } from '../setup/mail';
 import { startTestApp, type TestApp } from '../setup/test-app';
+import type { AlertDto } from '../../shared/schemas/alerts.schema';
 
 let t: TestApp;
 const MIN = 60_000;
@@ -108,7 +109,7 @@ async function kitTest(agent: Agent, farmId: string, unitId: string, body: Recor
 async function alertsOf(agent: Agent, farmId: string, query: Record<string, string>) {
   const res = await agent.get(`/api/farms/${farmId}/alerts`).query({ state: 'all', ...query });
   expect(res.status).toBe(200);
-  return res.body.alerts as Array<Record<string, any>>;
+  return res.body.alerts as AlertDto[];
 }
 
 // Emerson et al. 1975 via UF/IFAS FA16 table: 24 °C, pH 8.2 → NH3-N fraction 0.0772 (published);
@@ -128,7 +129,7 @@ describe('alert lifecycle from kit results', () => {
     expect(list).toHaveLength(1);
     const alert = list[0]!;
     expect(alert).toMatchObject({ level: 'act', state: 'open', unitCode: 'P1' });
-    expect(alert.values.value).toBeCloseTo(1.0 * NH3_PER_TAN, 3);
+    expect(alert.values.value as number).toBeCloseTo(1.0 * NH3_PER_TAN, 3);
     expect(alert.rule).toMatchObject({ metric: 'nh3', threshold: 0.05, watch: 0.02, act: 0.05, basis: 'mg/L NH3', clearsAt: 0.019 });
     expect(alert.rule.source).toMatch(/common practice/);
     expect(alert.message).toMatch(/above the act limit of 0\.050 mg\/L NH3/);
@@ -314,7 +315,7 @@ describe('silence, maintenance and fallow units', () => {
     await sweep(f.farmId);
     expect(await alertsOf(agent, f.farmId, { state: 'active', unitId: pond.id })).toEqual([]);
     const resolved = await alertsOf(agent, f.farmId, { state: 'resolved', unitId: pond.id });
-    expect(resolved.every((a) => /fallow/.test(a.resolutionNote))).toBe(true);
+    expect(resolved.every((a) => /fallow/.test(a.resolutionNote ?? ''))).toBe(true);
     const evaluation = (await (await manager.agent()).get(`/api/farms/${f.farmId}/units/${pond.id}/evaluation`)).body;
     expect(evaluation).toMatchObject({ fallow: true, checks: [], status: 'clear' });
   });
@@ -365,11 +366,12 @@ describe('routine tests and the night', () => {
     expect(a).toBeDefined();
     expect(a!.level).toBe('watch');
     expect(a!.message).toContain(`projected below 4.0 mg/L by ${hhmm(crosses.hour, crosses.minute)}`);
-    expect(a!.values.linear.doAtDawnMgL).toBeCloseTo(3.0, 3);
+    const v = a!.values as { linear: { doAtDawnMgL: number }; logLinear: { doAtDawnMgL: number }; lower: string; readingsUsed: Array<{ doMgL: number }> };
+    expect(v.linear.doAtDawnMgL).toBeCloseTo(3.0, 3);
     // Madenjian, Rogers & Fast 1987 form (computed): 9.0 × (7.8 / 9.0)^5 = 4.4005 mg/L.
-    expect(a!.values.logLinear.doAtDawnMgL).toBeCloseTo(4.4005, 3);
-    expect(a!.values.lower).toBe('linear');
-    expect(a!.values.readingsUsed.map((r: { doMgL: number }) => r.doMgL)).toEqual([9, 7.8]);
+    expect(v.logLinear.doAtDawnMgL).toBeCloseTo(4.4005, 3);
+    expect(v.lower).toBe('linear');
+    expect(v.readingsUsed.map((r) => r.doMgL)).toEqual([9, 7.8]);
     const evaluation = (await agent.get(`/api/farms/${f.farmId}/units/${pond.id}/evaluation`)).body;
     expect(evaluation.night).toBe(true);
     expect(evaluation.dawnProjection).toMatchObject({ thresholdMgL: 4, lower: 'linear', basedOn: 'probe', crossesLocalTime: hhmm(crosses.hour, crosses.minute) });

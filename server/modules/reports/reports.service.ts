@@ -191,7 +191,7 @@ function reportText(farm: FarmInfo, r: MorningReportDto): string {
   lines.push('', 'Aerators that ran:');
   if (!c.aerators.length) lines.push('  none');
   for (const a of c.aerators) lines.push(`  ${a.code}: ${a.hours} h`);
-  lines.push('', 'Alarms opened:');
+  lines.push('', 'Alarms opened since dusk:');
   if (!c.alarms.length) lines.push('  none');
   for (const a of c.alarms) {
     lines.push(`  ${a.openedLocalTime} ${a.level.toUpperCase()} ${a.title} — ${a.acknowledgedBy ? `acknowledged by ${a.acknowledgedBy.name}` : 'not acknowledged'}${a.resolvedAt ? ', resolved' : ''}`);
