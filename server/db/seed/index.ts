@@ -24,6 +24,8 @@ try {
     for (const id of result.waterTestIds) {
       await queues.add('computeWaterTest', { farmId: result.farms['harrow-bend']!, waterTestId: id, version: 1 }, { jobId: `wt:${id}:1` });
     }
+    // Every stocked unit gets today's feed recommendation, also those without a kit result yet.
+    for (const farmId of Object.values(result.farms)) await queues.add('recommendFeed', { farmId }, { jobId: `seed-feed-${farmId}` });
     await queues.close();
     await redis.quit();
     process.stdout.write(`demo farms seeded (${result.probes.length} probes, ${result.waterTestIds.length} kit results); credentials in ${credentialsFile}\n`);
