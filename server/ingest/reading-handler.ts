@@ -7,6 +7,7 @@ import {
 } from '../../shared/schemas/mqtt.schema';
 import { isPhysicallyPossible, isPlausibleStep, toCanonicalUnit } from '../../shared/units';
 import type { ReadingQuality } from '../db/entities';
+import { fastPayload } from './fast-payload';
 
 export type ProbeIdentity = { probeId: string; probeKey: string; farmId: string; unitId: string | null };
 export type ReadingRow = { probeId: string; quantity: Quantity; at: Date; value: number; quality: ReadingQuality };
@@ -31,7 +32,7 @@ const MAX_AGE_MS = 30 * 24 * 3600_000;
  */
 export class ReadingHandler {
   /** Last accepted value per probe and quantity, for the implausible-step check. */
-  private readonly last = new Map<string, { at: number; value: number }>();
+  private readonly last = new Map<string, Map<Quantity, { at: number; value: number }>>();
 
   handle(probe: ProbeIdentity, raw: Buffer | string, now = Date.now()): HandleResult {
     const size = typeof raw === 'string' ? Buffer.byteLength(raw) : raw.length;
@@ -44,16 +45,22 @@ export class ReadingHandler {
     } catch {
       return { rows: [], rejects: [{ reason: 'malformed_json', detail: 'payload is not JSON' }], payload: null };
     }
-    const parsed = probeReadingsPayloadSchema.safeParse(json);
-    if (!parsed.success) {
-      const issue = parsed.error.issues[0];
-      const detail = issue ? `${issue.path.join('.') || '(root)'}: ${issue.message}` : 'invalid payload';
-      return { rows: [], rejects: [{ reason: 'invalid_payload', detail: detail.slice(0, 300) }], payload: null };
+    // A well-formed message passes a hand-written check of the schema; anything else goes through zod,
+    // which decides and words the reject (see fast-payload.ts).
+    let data = fastPayload(json);
+    if (!data) {
+      const parsed = probeReadingsPayloadSchema.safeParse(json);
+      if (!parsed.success) {
+        const issue = parsed.error.issues[0];
+        const detail = issue ? `${issue.path.join('.') || '(root)'}: ${issue.message}` : 'invalid payload';
+        return { rows: [], rejects: [{ reason: 'invalid_payload', detail: detail.slice(0, 300) }], payload: null };
+      }
+      data = parsed.data;
     }
     const rows: ReadingRow[] = [];
     const rejects: Reject[] = [];
     // Oldest first, so the step check compares neighbours in time even when a buffer is replayed.
-    const samples = [...parsed.data.samples].sort((a, b) => Date.parse(a.at) - Date.parse(b.at));
+    const samples = data.samples.length === 1 ? data.samples : [...data.samples].sort((a, b) => Date.parse(a.at) - Date.parse(b.at));
     for (const sample of samples) {
       const atMs = Date.parse(sample.at);
       if (atMs > now + FUTURE_TOLERANCE_MS) {
@@ -84,7 +91,7 @@ export class ReadingHandler {
         rows.push({ probeId: probe.probeId, quantity, at, value, quality: this.quality(probe.probeId, quantity, atMs, value) });
       }
     }
-    return { rows, rejects, payload: parsed.data };
+    return { rows, rejects, payload: data };
   }
 
   private deriveSalinity(values: Map<Quantity, number>): number | null | 'missing_temperature' {
@@ -102,12 +109,20 @@ export class ReadingHandler {
   }
 
   private quality(probeId: string, quantity: Quantity, atMs: number, value: number): ReadingQuality {
-    const key = `${probeId}|${quantity}`;
-    const prev = this.last.get(key);
-    if (!prev || atMs >= prev.at) this.last.set(key, { at: atMs, value });
-    if (!prev) return 'good';
+    let perProbe = this.last.get(probeId);
+    if (!perProbe) this.last.set(probeId, (perProbe = new Map()));
+    const prev = perProbe.get(quantity);
+    if (!prev) {
+      perProbe.set(quantity, { at: atMs, value });
+      return 'good';
+    }
     const elapsedMinutes = Math.abs(atMs - prev.at) / 60_000;
-    return isPlausibleStep({ quantity, previousValue: prev.value, value, elapsedMinutes }) ? 'good' : 'suspect';
+    const good = isPlausibleStep({ quantity, previousValue: prev.value, value, elapsedMinutes });
+    if (atMs >= prev.at) {
+      prev.at = atMs;
+      prev.value = value;
+    }
+    return good ? 'good' : 'suspect';
   }
 }
 
