@@ -1,6 +1,6 @@
 import type { ReadingRow } from './reading-handler';
 
-type Pending = { rows: ReadingRow[]; resolve: () => void; reject: (err: unknown) => void };
+type Pending = { rows: ReadingRow[]; done: (err?: unknown) => void };
 
 export type BatchWriterOptions = {
   maxRows: number;
@@ -28,14 +28,20 @@ export class BatchWriter {
   constructor(private readonly options: BatchWriterOptions) {}
 
   write(rows: ReadingRow[]): Promise<void> {
-    if (this.closed) return Promise.reject(new Error('ingest is shutting down'));
-    if (!rows.length) return Promise.resolve();
-    return new Promise<void>((resolve, reject) => {
-      this.queue.push({ rows, resolve, reject });
-      this.queuedRows += rows.length;
-      if (this.queuedRows >= this.options.maxRows) this.kick();
-      else this.timer ??= setTimeout(() => this.kick(), this.options.flushMs);
-    });
+    return new Promise<void>((resolve, reject) => this.add(rows, (err) => (err === undefined ? resolve() : reject(err))));
+  }
+
+  /**
+   * Like write(), with a callback instead of a promise: `done()` once the rows are committed,
+   * `done(err)` when they are not. The broker uses this on the hot path (one call per message).
+   */
+  add(rows: ReadingRow[], done: (err?: unknown) => void): void {
+    if (this.closed) return done(new Error('ingest is shutting down'));
+    if (!rows.length) return done();
+    this.queue.push({ rows, done });
+    this.queuedRows += rows.length;
+    if (this.queuedRows >= this.options.maxRows) this.kick();
+    else this.timer ??= setTimeout(() => this.kick(), this.options.flushMs);
   }
 
   private kick(): void {
@@ -60,21 +66,25 @@ export class BatchWriter {
 
   private async flush(batch: Pending[]): Promise<void> {
     this.inFlight++;
-    const rows = batch.flatMap((p) => p.rows);
+    const rows: ReadingRow[] = [];
+    for (const p of batch) for (const r of p.rows) rows.push(r);
+    let inserted: number;
     try {
-      const inserted = await this.options.insert(rows);
-      this.stats.batches++;
-      this.stats.rows += rows.length;
-      this.stats.inserted += inserted;
-      for (const p of batch) p.resolve();
-      this.options.onDurable?.(rows, inserted);
+      inserted = await this.options.insert(rows);
     } catch (err) {
       this.stats.failures++;
-      for (const p of batch) p.reject(err);
-    } finally {
       this.inFlight--;
+      for (const p of batch) p.done(err ?? new Error('insert failed'));
       if (this.queue.length) this.kick();
+      return;
     }
+    this.stats.batches++;
+    this.stats.rows += rows.length;
+    this.stats.inserted += inserted;
+    this.inFlight--;
+    for (const p of batch) p.done();
+    this.options.onDurable?.(rows, inserted);
+    if (this.queue.length) this.kick();
   }
 
   /** Writes what is queued, then refuses new rows. */

@@ -159,22 +159,28 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
       counters.messages++;
       const { rows, rejects, payload } = handler.handle(identity, packet.payload as Buffer);
       countRejects(identity.probeKey, rejects);
-      seen.set(identity.probeId, {
-        at: new Date(),
-        ...(payload?.batteryPct !== undefined ? { batteryPct: payload.batteryPct } : {}),
-        ...(payload?.rssiDbm !== undefined ? { rssiDbm: payload.rssiDbm } : {}),
-      });
+      // One entry per probe between two flushes, updated in place (this runs for every message).
+      const last = seen.get(identity.probeId);
+      if (last) {
+        last.at = new Date();
+        if (payload?.batteryPct !== undefined) last.batteryPct = payload.batteryPct;
+        if (payload?.rssiDbm !== undefined) last.rssiDbm = payload.rssiDbm;
+      } else {
+        seen.set(identity.probeId, {
+          at: new Date(),
+          ...(payload?.batteryPct !== undefined ? { batteryPct: payload.batteryPct } : {}),
+          ...(payload?.rssiDbm !== undefined ? { rssiDbm: payload.rssiDbm } : {}),
+        });
+      }
       // A malformed payload is acknowledged without storing, or the probe would replay it forever.
       if (!rows.length) return callback(null);
       // Acknowledge only once the readings are durable; on a failed write refuse, and the probe re-sends.
-      writer.write(rows).then(
-        () => callback(null),
-        (err: unknown) => {
-          counters.writeFailures++;
-          logger.error({ err: err instanceof Error ? err.message : err, probeKey: identity.probeKey }, 'readings not stored; refusing message');
-          callback(new Error('storage unavailable'));
-        },
-      );
+      writer.add(rows, (err?: unknown) => {
+        if (err === undefined) return callback(null);
+        counters.writeFailures++;
+        logger.error({ err: err instanceof Error ? err.message : err, probeKey: identity.probeKey }, 'readings not stored; refusing message');
+        callback(new Error('storage unavailable'));
+      });
     },
   });
   broker.on('clientDisconnect', (client) => {
