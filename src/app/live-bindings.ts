@@ -1,3 +1,4 @@
+import { rationLiveEvents } from '@/features/rations/live';
 import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
 
 /**
@@ -7,6 +8,7 @@ import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
  */
 const featureBindings: Array<Record<string, LiveEventKeys>> = [
   // alertLiveEvents, unitLiveEvents, ... as features land
+  rationLiveEvents,
 ];
 
 let registered = false;

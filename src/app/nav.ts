@@ -37,7 +37,7 @@ export const navRegistry: readonly NavEntry[] = [
   entry('observations', ['hand'], false, 'eye'),
   entry('morningReport', office, false, 'report'),
   entry('units', office, false, 'grid'),
-  entry('rations', ['planner'], false, 'scoop'),
+  entry('rations', ['planner'], true, 'scoop'),
   entry('stock', ['planner'], false, 'fish'),
   entry('imports', ['planner'], false, 'upload'),
   entry('records', ['manager', 'planner', 'admin'], false, 'chart'),

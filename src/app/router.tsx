@@ -18,6 +18,7 @@ export function lazyRoute(load: () => Promise<RouteModule>): () => Promise<{ Com
  */
 export const farmRoutes: RouteObject[] = [
   { index: true, lazy: lazyRoute(() => import('./routes/farm-home')) },
+  { path: farmScreens.rations, lazy: lazyRoute(() => import('./routes/rations')) },
   { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
 ];
 
