@@ -1,6 +1,6 @@
 import { useState, type ComponentType } from 'react';
 import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router';
-import { paths } from '@/config/paths';
+import { farmScreens, paths } from '@/config/paths';
 import { BootFallback, RootLayout, RouteError } from './root-layout';
 
 type RouteModule = { default: ComponentType };
