@@ -36,7 +36,13 @@ export type RouteResult = { status?: number; body?: unknown; headers?: Record<st
 
 /** Ids of a seeded fixture, used by the route × role test to build a valid request for any route. */
 export type RouteFixture = Record<string, string>;
-export type RouteExample = { params?: Record<string, string>; query?: Record<string, unknown>; body?: unknown };
+export type RouteExample = {
+  params?: Record<string, string>;
+  query?: Record<string, unknown>;
+  body?: unknown;
+  /** A multipart upload instead of a JSON body. */
+  upload?: { field: string; base64: string; name: string };
+};
 
 export type RouteDef<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType> = {
   method: HttpMethod;

@@ -143,6 +143,7 @@ export const waterTestSchema = z.object({
   handheldSalinityPpt: z.number().nullable(),
   aeratorOn: z.boolean().nullable(),
   note: z.string().nullable(),
+  photoUrl: z.string().nullable(),
   source: z.string(),
   enteredById: z.string().nullable(),
   version: z.number(),

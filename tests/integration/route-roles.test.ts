@@ -6,7 +6,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RouteDef, RouteFixture } from '../../server/http/route-registry';
 import type { Role } from '../../shared/schemas/auth.schema';
 import { startTestApp, type TestApp } from '../setup/test-app';
-import { buildRouteFixture } from '../factories/route-fixture';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { buildRouteFixture, FIXTURE_PHOTO } from '../factories/route-fixture';
 import { DEMO_PASSWORD } from '../factories/demo';
 
 let t: TestApp;
@@ -43,13 +45,16 @@ async function call(route: RouteDef, params: Record<string, string>, cookie: str
   let req = request(t.app)[route.method](url).set('x-gillwise-client', 'web');
   if (cookie) req = req.set('cookie', cookie);
   if (example.query) req = req.query(example.query as Record<string, string>);
-  if (route.method !== 'get' && route.method !== 'delete') req = req.set('content-type', 'application/json').send(JSON.stringify(example.body ?? {}));
+  if (example.upload) req = req.attach(example.upload.field, Buffer.from(example.upload.base64, 'base64'), example.upload.name);
+  else if (route.method !== 'get' && route.method !== 'delete') req = req.set('content-type', 'application/json').send(JSON.stringify(example.body ?? {}));
   return req;
 }
 
 beforeAll(async () => {
   t = await startTestApp();
   fixture = await buildRouteFixture(t.ds);
+  mkdirSync(join(t.config.DATA_DIR, 'photos'), { recursive: true });
+  writeFileSync(join(t.config.DATA_DIR, 'photos', FIXTURE_PHOTO), Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==', 'base64'));
 }, 120_000);
 afterAll(() => t.close());
 

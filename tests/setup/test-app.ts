@@ -3,6 +3,9 @@
 // port, the worker's processors in-process, and an HTTP listener serving the built client.
 import 'reflect-metadata';
 import { createServer, type Server } from 'node:http';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { Worker } from 'bullmq';
 import type { Redis } from 'ioredis';
 import type { DataSource } from 'typeorm';
@@ -49,7 +52,9 @@ export type TestAppOptions = {
 export async function startTestApp(options: TestAppOptions = {}): Promise<TestApp> {
   const db = await createTestDatabase();
   const queuePrefix = uniqueQueuePrefix();
-  const config = parseEnv(testEnvSource({ databaseUrl: db.databaseUrl, queuePrefix, ...options.env }));
+  // Uploads, photos and credential files of this test app live in a folder of its own.
+  const dataDir = mkdtempSync(join(tmpdir(), 'gillwise-app-'));
+  const config = parseEnv(testEnvSource({ databaseUrl: db.databaseUrl, queuePrefix, DATA_DIR: dataDir, ...options.env }));
   const logger = createLogger({ level: process.env.GILLWISE_TEST_LOG ?? 'silent', name: 'test' });
   const ds = createDataSource(config.DATABASE_URL, { poolSize: 8 });
   await ds.initialize();
@@ -127,6 +132,7 @@ export async function startTestApp(options: TestAppOptions = {}): Promise<TestAp
       mailer.close();
       await ds.destroy();
       await db.drop();
+      rmSync(dataDir, { recursive: true, force: true });
     },
   };
 }

@@ -10,7 +10,7 @@ const present = (o: Observation, closeWatchUntil: Date | null) => ({
   kind: o.kind,
   detail: o.detail,
   count: o.count,
-  photoUrl: null,
+  photoUrl: o.photoPath ? `/api/farms/${o.farmId}/photos/${o.photoPath}` : null,
   observedAt: o.observedAt.toISOString(),
   createdById: o.createdById,
   closeWatchUntil: closeWatchUntil?.toISOString() ?? null,

@@ -43,6 +43,7 @@ export function presentTest(t: WaterTest, result: FreeAmmoniaResult | null): Wat
     handheldSalinityPpt: t.handheldSalinityPpt,
     aeratorOn: t.aeratorOn,
     note: t.note,
+    photoUrl: t.photoPath ? `/api/farms/${t.farmId}/photos/${t.photoPath}` : null,
     source: t.source,
     enteredById: t.enteredById,
     version: t.version,
