@@ -10,6 +10,8 @@ import { emailChannel, NotificationsService } from './modules/notifications/noti
 import type { Queues } from './queues';
 import { PeopleRepository } from './modules/people/people.repository';
 import { PeopleService } from './modules/people/people.service';
+import { PhotosService } from './modules/photos/photos.service';
+import { join as joinPath } from 'node:path';
 import { AuditRepository } from './modules/audit/audit.repository';
 import { AuditService } from './modules/audit/audit.service';
 import { FarmsRepository } from './modules/farms/farms.repository';
@@ -106,7 +108,8 @@ export function createServices(deps: CoreDeps) {
   const records = createRecordsService(deps.ds);
   const outbox = createOutboxService(deps.ds, deps.config.MAIL_FAKE_API_URL, deps.logger);
   const people = new PeopleService(new PeopleRepository(deps.ds), auth, notifications, audit, { publicUrl: deps.config.PUBLIC_URL }, deps.logger);
-  return { people, notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting, imports, csvExports, records, outbox };
+  const photos = new PhotosService(deps.ds, joinPath(deps.config.DATA_DIR, 'photos'));
+  return { photos, people, notifications, auth, live, waterTests, treatments, observations, tasks, audit, readings, units, farms, probeHealth, probes, ...stockAndFeed, ...alerting, imports, csvExports, records, outbox };
 }
 
 export type Services = ReturnType<typeof createServices>;

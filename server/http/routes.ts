@@ -7,6 +7,7 @@ import { treatmentRoutes } from '../modules/treatments/treatments.router';
 import { observationRoutes } from '../modules/observations/observations.router';
 import { taskRoutes } from '../modules/tasks/tasks.router';
 import { peopleRoutes } from '../modules/people/people.router';
+import { photoRoutes } from '../modules/photos/photos.router';
 import { stockRoutes } from '../modules/stock/stock.router';
 import { feedRoutes } from '../modules/feed/feed.router';
 import { auditRoutes } from '../modules/audit/audit.router';
@@ -34,6 +35,7 @@ export function allRoutes(deps: AppDeps, cookie: CookieOptions): RouteDef[] {
     ...observationRoutes(services.observations),
     ...taskRoutes(services.tasks),
     ...peopleRoutes(services.people, services.farms),
+    ...photoRoutes(services.photos),
     ...stockRoutes(services.stock),
     ...feedRoutes(services),
     ...farmsRoutes(services.farms),

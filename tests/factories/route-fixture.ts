@@ -4,6 +4,8 @@ import type { RouteFixture } from '../../server/http/route-registry';
 import { seedDemoFarms } from './demo';
 
 type Row = { id: string };
+/** The photo file the fixture's observation points at; the route × role test writes it into the data folder. */
+export const FIXTURE_PHOTO = '00000000-0000-4000-8000-000000000001.png';
 const first = async (ds: DataSource, sql: string, params: unknown[] = []) => ((await ds.query(sql, params)) as Row[])[0]?.id ?? '';
 
 /**
@@ -38,7 +40,16 @@ export async function buildRouteFixture(ds: DataSource): Promise<RouteFixture> {
      VALUES ($1, $2, $3, CURRENT_DATE - 400, 9000, 270, 3, 'feed', 0, 270, '[]', '{}', 'fixture', 'pending', now())`,
     [recommendationId, farmId, unitId],
   );
+  // Outbox rows for the outbox routes: one of the farm, one that belongs to no farm (a password reset).
+  const outboxMessageId = await first(ds, `INSERT INTO outbox_messages (farm_id, kind, to_address, subject, body, status) VALUES ($1, 'alert', 'manager@harrowbend.example', 'Fixture alert', 'fixture', 'failed') RETURNING id`, [farmId]);
+  const farmlessOutboxMessageId = await first(ds, `INSERT INTO outbox_messages (kind, to_address, subject, body, status) VALUES ('password_reset', 'hand@harrowbend.example', 'Fixture reset', 'fixture', 'failed') RETURNING id`);
+  // An observation with a stored photo, for the photo routes.
+  await ds.query(`INSERT INTO observations (farm_id, unit_id, kind, observed_at, photo_path) VALUES ($1, $2, 'water_colour', now(), $3)`, [farmId, unitId, FIXTURE_PHOTO]);
+  // A second one for the upload examples, so an upload does not take the stored photo's place.
+  const observationId = await first(ds, `INSERT INTO observations (farm_id, unit_id, kind, observed_at) VALUES ($1, $2, 'odour', now()) RETURNING id`, [farmId, unitId]);
   return {
+    observationId,
+    photoName: FIXTURE_PHOTO,
     farmId,
     otherFarmId,
     unitId,
@@ -53,6 +64,8 @@ export async function buildRouteFixture(ds: DataSource): Promise<RouteFixture> {
     handId,
     alertId,
     recommendationId,
+    outboxMessageId,
+    farmlessOutboxMessageId,
     day: new Date().toISOString().slice(0, 10),
   };
 }
