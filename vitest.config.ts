@@ -60,7 +60,7 @@ export default defineConfig({
         test: {
           name: 'faults',
           environment: 'node',
-          include: ['tests/faults/**/*.test.ts'],
+          include: ['tests/faults/**/*.test.ts', 'tests/fuzz/**/*.test.ts'],
           globalSetup: [stack],
           testTimeout: 180_000,
           hookTimeout: 120_000,

@@ -105,13 +105,25 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
     pendingRejects.clear();
     const touched = new Map(seen);
     seen.clear();
+    // Two writes that fail on their own: reject counters that cannot be stored must not stop the probes'
+    // last-seen times (a silent-looking probe raises alerts), and the other way round.
     try {
       await readings.addRejects(rejects);
+    } catch (err) {
+      // Put the counts back, added to what arrived while the write was failing.
+      for (const r of rejects) {
+        const key = `${r.probeKey}|${r.reason}`;
+        const cur = pendingRejects.get(key);
+        if (cur) cur.count += r.count;
+        else pendingRejects.set(key, r);
+      }
+      logger.warn({ err }, 'could not store probe reject counters; will retry');
+    }
+    try {
       await readings.touchProbes(touched);
     } catch (err) {
-      for (const r of rejects) pendingRejects.set(`${r.probeKey}|${r.reason}`, r);
       for (const [k, v] of touched) if (!seen.has(k)) seen.set(k, v);
-      logger.warn({ err }, 'could not store probe health counters; will retry');
+      logger.warn({ err }, 'could not store probe last-seen times; will retry');
     }
   };
   const sideTimer = setInterval(() => void flushSide(), 2000);

@@ -26,6 +26,13 @@ const FUTURE_TOLERANCE_MS = 5 * 60_000;
 const MAX_AGE_MS = 30 * 24 * 3600_000;
 
 /**
+ * A zod message quotes the probe's own keys ('Unrecognized key: "…"'), and the detail is stored in
+ * probe_rejects.last_detail: PostgreSQL text cannot hold U+0000 (the whole flush of reject counters
+ * would fail, again every time), and other control characters only garble logs and screens.
+ */
+const storableDetail = (detail: string) => detail.replace(/[\u0000-\u001f\u007f]/g, '\ufffd').slice(0, 300);
+
+/**
  * Turns one MQTT payload into reading rows in canonical units: validates with the shared zod schema,
  * converts units, derives salinity from conductivity (PSS-78), rejects impossible values and flags
  * implausible steps. Never throws: every problem becomes a counted reject.
@@ -53,7 +60,7 @@ export class ReadingHandler {
       if (!parsed.success) {
         const issue = parsed.error.issues[0];
         const detail = issue ? `${issue.path.join('.') || '(root)'}: ${issue.message}` : 'invalid payload';
-        return { rows: [], rejects: [{ reason: 'invalid_payload', detail: detail.slice(0, 300) }], payload: null };
+        return { rows: [], rejects: [{ reason: 'invalid_payload', detail: storableDetail(detail) }], payload: null };
       }
       data = parsed.data;
     }
