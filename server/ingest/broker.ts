@@ -10,6 +10,7 @@ import { ReadingsRepository } from '../modules/readings/readings.repository';
 import { verifyProbeSecret } from '../modules/probes/probe-secrets';
 import type { Queues } from '../queues';
 import { BatchWriter } from './batch-writer';
+import { optimisticInsert } from './insert-strategy';
 import { ReadingHandler, type ProbeIdentity, type ReadingRow, type Reject } from './reading-handler';
 
 type Client = Parameters<NonNullable<AedesOptions['authenticate']>>[0];
@@ -92,7 +93,7 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
     maxRows: deps.config.INGEST_BATCH_MAX,
     flushMs: deps.config.INGEST_FLUSH_MS,
     concurrency: 3,
-    insert: (rows) => readings.insertBatch(rows),
+    insert: optimisticInsert(readings),
     onDurable: (rows, inserted) => {
       counters.readingsStored += inserted;
       counters.readingsDuplicate += rows.length - inserted;

@@ -29,6 +29,36 @@ export const seriesSql = {
     FROM readings WHERE ${range} GROUP BY 1 ORDER BY 1`,
 };
 
+/**
+ * The five column arrays of a batch as array literals built in one pass: every element is a uuid, a
+ * quantity name, an ISO time, a finite number or a quality word, none of which needs quoting, so this
+ * skips the driver's per-element escaping (a few per cent of ingest CPU at 5000 rows a batch). Rows of
+ * one sample share their Date, so its ISO text is made once.
+ */
+function columnLiterals(rows: ReadingRow[]): [string, string, string, string, string] {
+  let probeIds = '{';
+  let quantities = '{';
+  let ats = '{';
+  let values = '{';
+  let qualities = '{';
+  let lastAt: Date | null = null;
+  let lastIso = '';
+  for (let i = 0; i < rows.length; i++) {
+    const r = rows[i]!;
+    const sep = i ? ',' : '';
+    if (r.at !== lastAt) {
+      lastAt = r.at;
+      lastIso = r.at.toISOString();
+    }
+    probeIds += sep + r.probeId;
+    quantities += sep + r.quantity;
+    ats += sep + lastIso;
+    values += sep + String(r.value);
+    qualities += sep + r.quality;
+  }
+  return [`${probeIds}}`, `${quantities}}`, `${ats}}`, `${values}}`, `${qualities}}`];
+}
+
 export class ReadingsRepository {
   constructor(private readonly ds: DataSource) {}
 
@@ -38,31 +68,29 @@ export class ReadingsRepository {
    */
   async insertBatch(rows: ReadingRow[]): Promise<number> {
     if (!rows.length) return 0;
-    // Each column goes as one array literal built here: every element is a uuid, a quantity name, an ISO
-    // time, a finite number or a quality word, none of which needs quoting, so this skips the driver's
-    // per-element escaping (a few per cent of ingest CPU at 5000 rows a batch).
-    let probeIds = '{';
-    let quantities = '{';
-    let ats = '{';
-    let values = '{';
-    let qualities = '{';
-    for (let i = 0; i < rows.length; i++) {
-      const r = rows[i]!;
-      const sep = i ? ',' : '';
-      probeIds += sep + r.probeId;
-      quantities += sep + r.quantity;
-      ats += sep + r.at.toISOString();
-      values += sep + String(r.value);
-      qualities += sep + r.quality;
-    }
     const result: unknown = await this.ds.query(
       `INSERT INTO readings (probe_id, quantity, at, value, quality)
        SELECT * FROM unnest($1::uuid[], $2::text[], $3::timestamptz[], $4::float8[], $5::text[])
        ON CONFLICT ON CONSTRAINT pk_readings DO NOTHING`,
-      [`${probeIds}}`, `${quantities}}`, `${ats}}`, `${values}}`, `${qualities}}`],
+      columnLiterals(rows),
     );
     // TypeORM returns [rows, affected] for INSERT without RETURNING on postgres.
     return Array.isArray(result) && typeof result[1] === 'number' ? result[1] : rows.length;
+  }
+
+  /**
+   * Stores rows none of which is expected to be stored already: a plain INSERT, which costs PostgreSQL
+   * about a third less per row than the ON CONFLICT form (no speculative insertion), and fails as a
+   * whole (unique violation 23505, nothing stored) when one is. The ingest path then uses insertBatch.
+   */
+  async insertNewBatch(rows: ReadingRow[]): Promise<number> {
+    if (!rows.length) return 0;
+    await this.ds.query(
+      `INSERT INTO readings (probe_id, quantity, at, value, quality)
+       SELECT * FROM unnest($1::uuid[], $2::text[], $3::timestamptz[], $4::float8[], $5::text[])`,
+      columnLiterals(rows),
+    );
+    return rows.length;
   }
 
   async touchProbes(seen: Map<string, { at: Date; batteryPct?: number; rssiDbm?: number }>): Promise<void> {
