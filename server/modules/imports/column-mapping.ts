@@ -1,4 +1,4 @@
-import { zonedTime } from '../../../shared/farm-time';
+import { localParts, zonedTime } from '../../../shared/farm-time';
 import type { ImportMapping, ImportWarning, SuggestedMapping } from '../../../shared/schemas/imports.schema';
 import { analytes, testBases, testMethods, type Analyte } from '../../../shared/schemas/water-tests.schema';
 
@@ -353,8 +353,12 @@ export function readTime(cell: string): Hms | null {
 const pad = (n: number, w = 2) => String(n).padStart(w, '0');
 const OFFSET_TIME = /^(\d{4}-\d{2}-\d{2})[T ](\d{2}:\d{2}(?::\d{2}(?:\.\d{1,9})?)?)\s*(Z|[+-]\d{2}:?\d{2})$/i;
 
-function localInstant(day: Ymd, t: Hms, timeZone: string): string {
-  const at = zonedTime(`${day.y}-${pad(day.m)}-${pad(day.d)}`, t.h, t.min, timeZone);
+/** The instant the wall clock shows this time; null when the clock skips it (the spring-forward hour). */
+function localInstant(day: Ymd, t: Hms, timeZone: string): string | null {
+  const dayText = `${day.y}-${pad(day.m)}-${pad(day.d)}`;
+  const at = zonedTime(dayText, t.h, t.min, timeZone);
+  const shown = localParts(at, timeZone);
+  if (shown.day !== dayText || shown.hour !== t.h || shown.minute !== t.min) return null;
   return new Date(at.getTime() + t.s * 1000 + t.ms).toISOString();
 }
 
@@ -390,7 +394,8 @@ function combine(date: string, time: string, order: ImportMapping['dateOrder'], 
   if (!day) return { problem: `"${date}" is not a date` };
   const t = readTime(time);
   if (!t) return { problem: `"${time}" is not a time of day` };
-  return { iso: localInstant(day, t, timeZone) };
+  const iso = localInstant(day, t, timeZone);
+  return iso ? { iso } : { problem: `${date} ${time} does not exist in ${timeZone} (the clocks moved forward that night)` };
 }
 
 export function fahrenheitToCelsius(f: number): number {

@@ -36,8 +36,6 @@ export type ImportSession = {
   mapping: ImportMapping | null;
   /** Key of the mapping the counts above belong to. */
   mappingKey: string | null;
-  /** Key of the mapping that was committed, once a commit succeeded. */
-  committedMappingKey: string | null;
   commit: CommitReport | null;
   error: { code: string; message: string } | null;
   createdAt: string;

@@ -2,6 +2,10 @@ import type { ImportStatus, ImportUploadResponse } from '../../../shared/schemas
 import { SESSION_TTL_SECONDS, type ImportSession } from './import-sessions.store';
 import type { ImportStatusView, UploadResult } from './imports.service';
 
+/** Preview cells are for recognising columns; a long note is cut so 20 rows stay a small response. */
+const PREVIEW_CELL_CHARS = 300;
+const previewCell = (c: string) => (c.length > PREVIEW_CELL_CHARS ? `${c.slice(0, PREVIEW_CELL_CHARS)}…` : c);
+
 const expiresAt = (s: ImportSession) => new Date(Date.parse(s.updatedAt) + SESSION_TTL_SECONDS * 1000).toISOString();
 
 export function presentUpload(r: UploadResult): ImportUploadResponse {
@@ -14,7 +18,7 @@ export function presentUpload(r: UploadResult): ImportUploadResponse {
     delimiter: s.delimiter,
     headers: s.headers,
     totalRows: s.totalRows,
-    preview: r.preview.map((row) => ({ line: row.line, cells: row.cells })),
+    preview: r.preview.map((row) => ({ line: row.line, cells: row.cells.map(previewCell) })),
     suggestedMapping: r.suggestion,
     warnings: r.warnings,
     state: s.state,

@@ -48,7 +48,7 @@ export function importRoutes(imports: ImportsService, auth: Pick<Authenticator, 
       body: importUploadJsonSchema,
       response: importUploadResponseSchema,
       before: [importUpload({ auth, roles: IMPORT_ROLES, dir: imports.incomingDir })],
-      example: () => ({ body: { fileName: 'route-example.csv', csv: EXAMPLE_CSV } }),
+      example: (f) => ({ params: { farmId: f.farmId! }, body: { fileName: 'route-example.csv', csv: EXAMPLE_CSV } }),
       handler: async ({ params, body, user, req }) => {
         const file = (req as Request & { file?: UploadedFile }).file;
         const userId = user?.id ?? null;

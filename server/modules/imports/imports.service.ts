@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { mkdir, readdir, rename, rm, stat, writeFile } from 'node:fs/promises';
+import { mkdir, readdir, rename, rm, stat, utimes, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { importLimits, type ImportCommitRequest, type ImportMapping, type ImportReject, type ImportWarning } from '../../../shared/schemas/imports.schema';
 import { jobs } from '../../../shared/schemas/jobs.schema';
@@ -11,7 +11,7 @@ import { isTimeZone, looksLikeDataRow, suggestMapping, uniqueHeaders, unknownCol
 import { readRows, sniffFile, type CsvRow } from './csv-file';
 import { SESSION_TTL_SECONDS, type ImportSession, type ImportSessionStore, type SessionLock } from './import-sessions.store';
 import type { ImportedTestRow, ImportsRepository, ImportWriter } from './imports.repository';
-import { importIdFor, mappingKey, rowChecker, type RowChecker } from './row-check';
+import { clientIdFor, importIdFor, mappingKey, rowChecker, type RowChecker } from './row-check';
 
 /** Where the audit entry of a committed import goes (the audit module's service in the container). */
 export type ImportAudit = {
@@ -163,7 +163,6 @@ export class ImportsService {
         rejectedRows: 0,
         mapping: null,
         mappingKey: null,
-        committedMappingKey: null,
         commit: null,
         error: null,
         createdAt: now,
@@ -247,7 +246,9 @@ export class ImportsService {
       throw err;
     }
     const task = this.track(this.runValidation({ ...session, mapping }, mapping, lock));
-    await Promise.race([task, new Promise((r) => setTimeout(r, this.validateWaitMs))]);
+    let timer: NodeJS.Timeout | undefined;
+    await Promise.race([task, new Promise((r) => (timer = setTimeout(r, this.validateWaitMs)))]);
+    clearTimeout(timer);
     return this.status(farmId, importId, { offset: 0, limit: 100 });
   }
 
@@ -259,13 +260,6 @@ export class ImportsService {
     const session = await this.session(farmId, importId);
     this.checkMapping(session, body.mapping);
     const key = mappingKey(body.mapping);
-    if (session.committedMappingKey && session.committedMappingKey !== key) {
-      throw conflict(
-        'This file was already imported with another mapping. Correct the stored results one by one (edits are audited), or upload a corrected file.',
-        undefined,
-        'mapping_changed_after_commit',
-      );
-    }
     if (!body.skipRejected && session.state === 'validated' && session.mappingKey === key && session.rejectedRows > 0) {
       throw conflict(
         `${session.rejectedRows} row(s) are rejected. Fix the file and upload it again, or commit with skipRejected to store the other rows.`,
@@ -292,7 +286,7 @@ export class ImportsService {
       await lock.release();
       throw err;
     }
-    void this.track(this.runCommit({ ...session, mapping: body.mapping }, body, key, userId, startedAt, lock));
+    void this.track(this.runCommit({ ...session, mapping: body.mapping }, body, userId, startedAt, lock));
     return this.status(farmId, importId, { offset: 0, limit: 100 });
   }
 
@@ -301,8 +295,9 @@ export class ImportsService {
     while (this.running.size) await Promise.allSettled([...this.running]);
   }
 
+  /** Background runs report their own failures in the session; nothing may escape as an unhandled rejection. */
   private track(task: Promise<void>): Promise<void> {
-    const tracked = task.finally(() => this.running.delete(tracked));
+    const tracked = task.catch((err: unknown) => this.logger.error({ err }, 'import run failed')).finally(() => this.running.delete(tracked));
     this.running.add(tracked);
     return tracked;
   }
@@ -311,7 +306,6 @@ export class ImportsService {
     const farm = await this.repo.findFarm(session.farmId);
     if (!farm) throw notFound('Farm');
     return rowChecker({
-      importId: session.importId,
       mapping,
       headers: session.headers,
       timeZone: farm.timeZone,
@@ -332,7 +326,14 @@ export class ImportsService {
   ): Promise<{ processed: number; accepted: number; rejected: number }> {
     const check = await this.checker(session, mapping);
     const { farmId, importId } = session;
-    const reader = readRows(this.filePath(importId), session.delimiter);
+    const path = this.filePath(importId);
+    // The sweep removes files by age; a file whose import is in use is kept young.
+    const now = new Date();
+    await utimes(path, now, now).catch((err: NodeJS.ErrnoException) => {
+      if (err.code === 'ENOENT') throw new AppError(410, 'import_expired', 'The uploaded file is no longer kept (imports expire 24 h after their last change). Upload the file again.');
+      throw err;
+    });
+    const reader = readRows(path, session.delimiter);
     let processed = 0;
     let accepted = 0;
     let rejected = 0;
@@ -356,7 +357,7 @@ export class ImportsService {
         continue;
       }
       processed++;
-      const result = check(row.line, row.cells);
+      const result = check(row.cells);
       if (result.ok) {
         accepted++;
         await onGood({ line: row.line, unitId: result.unitId, input: result.input });
@@ -382,7 +383,7 @@ export class ImportsService {
     }
   }
 
-  private async runCommit(session: ImportSession, body: ImportCommitRequest, key: string, userId: string | null, startedAt: string, lock: SessionLock): Promise<void> {
+  private async runCommit(session: ImportSession, body: ImportCommitRequest, userId: string | null, startedAt: string, lock: SessionLock): Promise<void> {
     const { farmId, importId } = session;
     const report = { skipRejected: body.skipRejected, storedRows: 0, alreadyStoredRows: 0, skippedRows: 0, queuedResults: 0, startedAt, finishedAt: null as string | null };
     const otherAnalyteUnits = new Set<string>();
@@ -401,7 +402,7 @@ export class ImportsService {
             batch = [];
           };
           counts = await this.pass(session, body.mapping, lock, async (good) => {
-            batch.push(toRow(farmId, good.unitId, good.input, userId));
+            batch.push(toRow(farmId, good.unitId, { ...good.input, clientId: clientIdFor(importId, good.line, good.input.analyte) }, userId));
             if (batch.length >= this.batchSize) await write();
           });
           await write();
@@ -444,7 +445,6 @@ export class ImportsService {
         processedRows: counts.processed,
         acceptedRows: counts.accepted,
         rejectedRows: counts.rejected,
-        committedMappingKey: key,
         commit: report,
         error: null,
       });

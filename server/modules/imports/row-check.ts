@@ -10,8 +10,10 @@ import type { ImportUnit } from './imports.repository';
 const MAX_REASONS = 10;
 
 /** RFC 4122 version-5 (SHA-1, name-based) UUID. */
+let lastNamespace: { text: string; bytes: Buffer } | null = null;
 export function uuidV5(name: string, namespace: string): string {
-  const ns = Buffer.from(namespace.replace(/-/g, ''), 'hex');
+  if (lastNamespace?.text !== namespace) lastNamespace = { text: namespace, bytes: Buffer.from(namespace.replace(/-/g, ''), 'hex') };
+  const ns = lastNamespace.bytes;
   const hash = createHash('sha1').update(ns).update(name, 'utf8').digest();
   hash[6] = (hash[6]! & 0x0f) | 0x50;
   hash[8] = (hash[8]! & 0x3f) | 0x80;
@@ -25,8 +27,11 @@ const IMPORT_NAMESPACE = '3f0c7e52-6a1b-4d8e-9c47-b2e5d1a8f09c';
 /** The same file uploaded to the same farm is the same import. */
 export const importIdFor = (farmId: string, sha256: string) => uuidV5(`${farmId}:${sha256}`, IMPORT_NAMESPACE);
 
-/** Client id of the test from one line of an import: re-running the commit stores each line once. */
-export const clientIdFor = (importId: string, line: number) => uuidV5(`line:${line}`, importId);
+/**
+ * Client id of the test one line of an import gives for one analyte: re-running the commit stores each
+ * line once, and the same meter log committed again for another analyte column adds that analyte.
+ */
+export const clientIdFor = (importId: string, line: number, analyte: string) => uuidV5(`line:${line}:${analyte}`, importId);
 
 /** A stable key of a mapping (object key order does not matter). */
 export function mappingKey(mapping: ImportMapping): string {
@@ -38,7 +43,6 @@ export function mappingKey(mapping: ImportMapping): string {
 }
 
 export type RowContext = {
-  importId: string;
   mapping: ImportMapping;
   headers: string[];
   timeZone: string;
@@ -46,9 +50,15 @@ export type RowContext = {
   units: ImportUnit[];
 };
 
+/**
+ * A good row. `input.clientId` is a placeholder: the stored client id (clientIdFor) is computed only
+ * for rows that are written, which keeps a validation pass over 200 000 rows cheap.
+ */
 export type CheckedRow = { ok: true; unitId: string; input: CreateWaterTest } | { ok: false; reasons: string[] };
 
-export type RowChecker = (line: number, cells: string[]) => CheckedRow;
+const PLACEHOLDER_CLIENT_ID = '00000000-0000-5000-8000-000000000000';
+
+export type RowChecker = (cells: string[]) => CheckedRow;
 
 /** Builds the checker for one pass over a file (column positions and the unit lookup are resolved once). */
 export function rowChecker(ctx: RowContext): RowChecker {
@@ -81,7 +91,7 @@ export function rowChecker(ctx: RowContext): RowChecker {
     note: sourceLabel('note', 'note'),
   };
 
-  return (line, cells) => {
+  return (cells) => {
     const cell = (column: string) => (cells[pos(column)] ?? '').trim();
     const reasons: string[] = [];
     const failed = new Set<string>();
@@ -154,7 +164,7 @@ export function rowChecker(ctx: RowContext): RowChecker {
 
     // The one schema: the same checks as the pondside form and the API, on what could be read.
     const candidate = {
-      clientId: clientIdFor(ctx.importId, line),
+      clientId: PLACEHOLDER_CLIENT_ID,
       analyte: analyte ?? undefined,
       method: method ?? undefined,
       basis: basis ?? undefined,
