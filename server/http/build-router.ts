@@ -30,6 +30,31 @@ function tokenFrom(req: Request): string | null {
 
 const fieldErrors = (error: z.ZodError) => z.flattenError(error);
 
+/**
+ * Where a string (or object key) holding U+0000 sits in validated input, or null. PostgreSQL text and
+ * jsonb cannot store that character, so such input would otherwise fail in SQL as a 500; it is refused
+ * here, at the edge, for every route. Iterative with a node budget: input may be nested deeply.
+ */
+export function nulCharacterPath(value: unknown, budget = 100_000): string[] | null {
+  const stack: Array<{ v: unknown; path: string[] }> = [{ v: value, path: [] }];
+  while (stack.length && budget-- > 0) {
+    const { v, path } = stack.pop()!;
+    if (typeof v === 'string') {
+      if (v.includes('\u0000')) return path;
+      continue;
+    }
+    if (v === null || typeof v !== 'object') continue;
+    for (const [k, child] of Object.entries(v)) {
+      if (k.includes('\u0000')) return [...path, k];
+      stack.push({ v: child, path: [...path, k] });
+    }
+  }
+  return null;
+}
+
+const nulRefused = (path: string[]) =>
+  validationError({ formErrors: [], fieldErrors: { [path[0] ?? '(root)']: ['must not contain the NUL character (U+0000)'] } });
+
 /** Builds the Express router from the route registry: authenticate → params → farm scope → role → input → handler. */
 export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: CookieOptions): Router {
   const router = Router();
@@ -45,7 +70,7 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
         }
         // A malformed id in the path names nothing: 404, like an id that does not exist.
         const params = route.params ? route.params.safeParse(req.params) : { success: true as const, data: req.params };
-        if (!params.success) throw notFound();
+        if (!params.success || nulCharacterPath(params.data)) throw notFound();
         let farmRole = null;
         if (route.access.kind === 'roles') {
           if (!user) throw unauthorized();
@@ -63,8 +88,12 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
         }
         const query = route.query ? route.query.safeParse(req.query) : { success: true as const, data: req.query };
         if (!query.success) throw validationError(fieldErrors(query.error), 'Some query parameters are not valid.');
+        const nulInQuery = nulCharacterPath(query.data);
+        if (nulInQuery) throw nulRefused(nulInQuery);
         const body = route.body ? route.body.safeParse(req.body ?? {}) : { success: true as const, data: req.body };
         if (!body.success) throw validationError(fieldErrors(body.error));
+        const nulInBody = nulCharacterPath(body.data);
+        if (nulInBody) throw nulRefused(nulInBody);
         const result = await route.handler({
           params: params.data,
           query: query.data,

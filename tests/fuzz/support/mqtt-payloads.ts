@@ -88,10 +88,12 @@ function malformedJson(nowMs: number): fc.Arbitrary<FuzzCase> {
 function randomBytes(): fc.Arbitrary<FuzzCase> {
   return fc
     .uint8Array({ maxLength: 600 })
-    .map((bytes) => Buffer.from(bytes))
-    .map((payload) => ({ payload, reason: classify(payload) }))
-    .filter((c): c is { payload: Buffer; reason: RejectReason } => c.reason !== null)
-    .map((c) => ({ kind: 'random-bytes', payload: c.payload, reason: c.reason, rejects: 1 }));
+    .map((bytes): FuzzCase | null => {
+      const payload = Buffer.from(bytes);
+      const reason = classify(payload);
+      return reason ? { kind: 'random-bytes', payload, reason, rejects: 1 } : null;
+    })
+    .filter((c): c is FuzzCase => c !== null);
 }
 
 type Mutation = (m: Record<string, unknown>) => void;
