@@ -1,4 +1,9 @@
 import { rationLiveEvents } from '@/features/rations/live';
+import { nightRoundLiveEvents } from '@/features/night-round/api/night-round';
+import { observationLiveEvents } from '@/features/observations/api/observations';
+import { pondsideLiveEvents } from '@/features/pondside/api/live';
+import { taskLiveEvents } from '@/features/tasks/api/tasks';
+import { treatmentLiveEvents } from '@/features/treatments/api/treatments';
 import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
 
 /**
@@ -9,6 +14,11 @@ import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
 const featureBindings: Array<Record<string, LiveEventKeys>> = [
   // alertLiveEvents, unitLiveEvents, ... as features land
   rationLiveEvents,
+  pondsideLiveEvents,
+  taskLiveEvents,
+  nightRoundLiveEvents,
+  treatmentLiveEvents,
+  observationLiveEvents,
 ];
 
 let registered = false;

@@ -28,13 +28,13 @@ function entry(key: NavKey, roles: readonly Role[], ready: boolean, icon: IconNa
 
 export const navRegistry: readonly NavEntry[] = [
   entry('home', everyone, true, 'home'),
-  entry('tasks', ['hand'], false, 'tasks'),
-  entry('pondside', ['hand'], false, 'tube'),
-  entry('nightRound', ['hand'], false, 'moon'),
+  entry('tasks', ['hand'], true, 'tasks'),
+  entry('pondside', ['hand'], true, 'tube'),
+  entry('nightRound', ['hand'], true, 'moon'),
   entry('map', office, false, 'map'),
   entry('alerts', ['hand', 'manager', 'admin'], false, 'bell'),
-  entry('treatments', ['hand'], false, 'drop'),
-  entry('observations', ['hand'], false, 'eye'),
+  entry('treatments', ['hand'], true, 'drop'),
+  entry('observations', ['hand'], true, 'eye'),
   entry('morningReport', office, false, 'report'),
   entry('units', office, false, 'grid'),
   entry('rations', ['planner'], true, 'scoop'),

@@ -19,6 +19,13 @@ export function lazyRoute(load: () => Promise<RouteModule>): () => Promise<{ Com
 export const farmRoutes: RouteObject[] = [
   { index: true, lazy: lazyRoute(() => import('./routes/farm-home')) },
   { path: farmScreens.rations, lazy: lazyRoute(() => import('./routes/rations')) },
+  { path: farmScreens.tasks, lazy: lazyRoute(() => import('./routes/tasks')) },
+  { path: farmScreens.pondside, lazy: lazyRoute(() => import('./routes/pondside')) },
+  { path: farmScreens.unitTest, lazy: lazyRoute(() => import('./routes/pondside')) },
+  { path: farmScreens.unitLabel, lazy: lazyRoute(() => import('./routes/unit-label')) },
+  { path: farmScreens.nightRound, lazy: lazyRoute(() => import('./routes/night-round')) },
+  { path: farmScreens.treatments, lazy: lazyRoute(() => import('./routes/treatments')) },
+  { path: farmScreens.observations, lazy: lazyRoute(() => import('./routes/observations')) },
   { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
 ];
 

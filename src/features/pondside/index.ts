@@ -1,0 +1,10 @@
+export { pondsideQueries } from './api/farm-data';
+export { pondsideLiveEvents } from './api/live';
+export { waterTestQueries, waterTestsPath } from './api/water-tests';
+export { OutboxList } from './components/outbox-list';
+export { PondsideTest } from './components/pondside-test';
+export { UnitLabel } from './components/unit-label';
+export { useOutboxEntries, useOutboxSync } from './hooks/use-outbox';
+export { outbox, type NewOutboxEntry, type OutboxEntry } from './lib/outbox';
+export { photoForOutbox } from './lib/photo';
+export { newClientId } from './lib/uuid';

@@ -1,0 +1,2 @@
+export { taskLiveEvents, taskQueries } from './api/tasks';
+export { TaskBoard } from './components/task-board';

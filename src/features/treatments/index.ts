@@ -1,0 +1,2 @@
+export { treatmentLiveEvents, treatmentQueries } from './api/treatments';
+export { TreatmentsScreen } from './components/treatments-screen';
