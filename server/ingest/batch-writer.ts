@@ -1,4 +1,7 @@
+import { performance } from 'node:perf_hooks';
 import type { ReadingRow } from './reading-handler';
+
+const SETTLE_SLICE_MS = 4;
 
 type Pending = { rows: ReadingRow[]; done: (err?: unknown) => void };
 
@@ -82,9 +85,24 @@ export class BatchWriter {
     this.stats.rows += rows.length;
     this.stats.inserted += inserted;
     this.inFlight--;
-    for (const p of batch) p.done();
+    this.settle(batch);
     this.options.onDurable?.(rows, inserted);
     if (this.queue.length) this.kick();
+  }
+
+  /**
+   * Calls the batch's callbacks in slices of a few milliseconds: each one acknowledges a message and lets
+   * the broker read the next ones from that connection, and a batch holds thousands of messages, so doing
+   * them all in one turn of the event loop would hold up HTTP requests for that long.
+   */
+  private settle(batch: Pending[], from = 0): void {
+    const until = performance.now() + SETTLE_SLICE_MS;
+    let i = from;
+    while (i < batch.length) {
+      batch[i++]!.done();
+      if (i % 16 === 0 && performance.now() >= until) break;
+    }
+    if (i < batch.length) setImmediate(() => this.settle(batch, i));
   }
 
   /** Writes what is queued, then refuses new rows. */

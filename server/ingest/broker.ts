@@ -1,7 +1,8 @@
 import { createServer, type Server } from 'node:net';
 import { Aedes, type AedesOptions } from 'aedes';
+import { performance } from 'node:perf_hooks';
 import type { DataSource } from 'typeorm';
-import { parseTopic } from '../../shared/mqtt/topics';
+import { isValidProbeKey, parseTopic, readingsTopic } from '../../shared/mqtt/topics';
 import type { Env } from '../config/env';
 import type { Services } from '../container';
 import { Probe } from '../db/entities';
@@ -48,6 +49,7 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
   const readings = new ReadingsRepository(ds);
   const handler = new ReadingHandler();
   const identities = new WeakMap<Client, ProbeIdentity>();
+  const topics = new WeakMap<ProbeIdentity, string>();
   const clientsByKey = new Map<string, Client>();
   const probeUnits = new Map<string, { farmId: string; unitId: string | null }>();
   const counters: IngestCounters = {
@@ -129,6 +131,54 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
   };
   const sideTimer = setInterval(() => void flushSide(), 2000);
 
+  type Pending = { identity: ProbeIdentity; payload: Buffer; callback: (err: Error | null) => void };
+  const backlog: Array<Pending | undefined> = [];
+  let backlogHead = 0;
+  let draining = false;
+  const SLICE_MS = 4;
+  const drainBacklog = () => {
+    const until = performance.now() + SLICE_MS;
+    let n = 0;
+    while (backlogHead < backlog.length) {
+      const m = backlog[backlogHead];
+      backlog[backlogHead++] = undefined;
+      if (m) accept(m.identity, m.payload, m.callback);
+      if (++n % 16 === 0 && performance.now() >= until) break;
+    }
+    if (backlogHead >= backlog.length) {
+      backlog.length = 0;
+      backlogHead = 0;
+      draining = false;
+    } else setImmediate(drainBacklog);
+  };
+
+  const accept = (identity: ProbeIdentity, raw: Buffer, callback: (err: Error | null) => void) => {
+    const { rows, rejects, payload } = handler.handle(identity, raw);
+    countRejects(identity.probeKey, rejects);
+    // One entry per probe between two flushes, updated in place (this runs for every message).
+    const last = seen.get(identity.probeId);
+    if (last) {
+      last.at = new Date();
+      if (payload?.batteryPct !== undefined) last.batteryPct = payload.batteryPct;
+      if (payload?.rssiDbm !== undefined) last.rssiDbm = payload.rssiDbm;
+    } else {
+      seen.set(identity.probeId, {
+        at: new Date(),
+        ...(payload?.batteryPct !== undefined ? { batteryPct: payload.batteryPct } : {}),
+        ...(payload?.rssiDbm !== undefined ? { rssiDbm: payload.rssiDbm } : {}),
+      });
+    }
+    // A malformed payload is acknowledged without storing, or the probe would replay it forever.
+    if (!rows.length) return callback(null);
+    // Acknowledge only once the readings are durable; on a failed write refuse, and the probe re-sends.
+    writer.add(rows, (err?: unknown) => {
+      if (err === undefined) return callback(null);
+      counters.writeFailures++;
+      logger.error({ err: err instanceof Error ? err.message : err, probeKey: identity.probeKey }, 'readings not stored; refusing message');
+      callback(new Error('storage unavailable'));
+    });
+  };
+
   const broker = await Aedes.createBroker({
     concurrency: 1000,
     heartbeatInterval: 60_000,
@@ -143,7 +193,9 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
         .findOneBy({ probeKey: username, active: true })
         .then((probe) => {
           if (!probe || !verifyProbeSecret(password.toString('utf8'), probe.secretHash)) return refuse();
-          identities.set(client, { probeId: probe.id, probeKey: probe.probeKey, farmId: probe.farmId, unitId: probe.unitId });
+          const identity = { probeId: probe.id, probeKey: probe.probeKey, farmId: probe.farmId, unitId: probe.unitId };
+          identities.set(client, identity);
+          if (isValidProbeKey(probe.probeKey)) topics.set(identity, readingsTopic(probe.probeKey));
           probeUnits.set(probe.id, { farmId: probe.farmId, unitId: probe.unitId });
           clientsByKey.set(probe.probeKey, client);
           done(null, true);
@@ -161,8 +213,8 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
     },
     authorizePublish: (client, packet, callback) => {
       const identity = client ? identities.get(client) : undefined;
-      const topic = parseTopic(packet.topic);
-      if (!identity || !topic || topic.probeKey !== identity.probeKey) {
+      // The topic a probe publishes to is the same every time: compare with its own before parsing.
+      if (!identity || (packet.topic !== topics.get(identity) && parseTopic(packet.topic)?.probeKey !== identity.probeKey)) {
         counters.refusedTopics++;
         logger.warn({ clientId: client?.id, topic: packet.topic }, 'MQTT publish refused: not this probe’s topic');
         // MQTT 3.1.1 has no negative PUBACK: refusing closes the connection.
@@ -170,30 +222,14 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
       }
       packet.retain = false;
       counters.messages++;
-      const { rows, rejects, payload } = handler.handle(identity, packet.payload as Buffer);
-      countRejects(identity.probeKey, rejects);
-      // One entry per probe between two flushes, updated in place (this runs for every message).
-      const last = seen.get(identity.probeId);
-      if (last) {
-        last.at = new Date();
-        if (payload?.batteryPct !== undefined) last.batteryPct = payload.batteryPct;
-        if (payload?.rssiDbm !== undefined) last.rssiDbm = payload.rssiDbm;
-      } else {
-        seen.set(identity.probeId, {
-          at: new Date(),
-          ...(payload?.batteryPct !== undefined ? { batteryPct: payload.batteryPct } : {}),
-          ...(payload?.rssiDbm !== undefined ? { rssiDbm: payload.rssiDbm } : {}),
-        });
+      // Validation and batching run in slices of a few milliseconds (see drainBacklog), not inside the
+      // socket read that delivered the packet: hundreds of connections can each hand over dozens of
+      // pipelined messages in one turn of the event loop, and HTTP requests must not wait behind them.
+      backlog.push({ identity, payload: packet.payload as Buffer, callback });
+      if (!draining) {
+        draining = true;
+        setImmediate(drainBacklog);
       }
-      // A malformed payload is acknowledged without storing, or the probe would replay it forever.
-      if (!rows.length) return callback(null);
-      // Acknowledge only once the readings are durable; on a failed write refuse, and the probe re-sends.
-      writer.add(rows, (err?: unknown) => {
-        if (err === undefined) return callback(null);
-        counters.writeFailures++;
-        logger.error({ err: err instanceof Error ? err.message : err, probeKey: identity.probeKey }, 'readings not stored; refusing message');
-        callback(new Error('storage unavailable'));
-      });
     },
   });
   broker.on('clientDisconnect', (client) => {
