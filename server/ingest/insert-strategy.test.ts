@@ -23,7 +23,11 @@ function fakeRepo() {
     async insertBatch(rows: ReadingRow[]) {
       calls.push('on-conflict');
       let n = 0;
-      for (const r of rows) if (!stored.has(r.at.getTime())) (stored.add(r.at.getTime()), n++);
+      for (const r of rows) {
+        if (stored.has(r.at.getTime())) continue;
+        stored.add(r.at.getTime());
+        n++;
+      }
       return n;
     },
   };
