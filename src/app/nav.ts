@@ -42,8 +42,8 @@ export const navRegistry: readonly NavEntry[] = [
   entry('imports', ['planner'], false, 'upload'),
   entry('records', ['manager', 'planner', 'admin'], false, 'chart'),
   entry('audit', office, false, 'shield'),
-  entry('setup', office, false, 'sliders'),
-  entry('people', ['admin'], false, 'people'),
+  entry('setup', office, true, 'sliders'),
+  entry('people', ['admin'], true, 'people'),
   entry('outbox', office, false, 'mail'),
 ];
 

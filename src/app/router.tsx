@@ -26,6 +26,8 @@ export const farmRoutes: RouteObject[] = [
   { path: farmScreens.nightRound, lazy: lazyRoute(() => import('./routes/night-round')) },
   { path: farmScreens.treatments, lazy: lazyRoute(() => import('./routes/treatments')) },
   { path: farmScreens.observations, lazy: lazyRoute(() => import('./routes/observations')) },
+  { path: farmScreens.setup, lazy: lazyRoute(() => import('./routes/setup')) },
+  { path: farmScreens.people, lazy: lazyRoute(() => import('./routes/setup-people')) },
   { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
 ];
 

@@ -1,0 +1,3 @@
+export { setupQueries } from './api/setup-queries';
+export { SecretDialog } from './components/probes/secret-dialog';
+export { SetupScreen, setupTabs, type SetupTab } from './components/setup-screen';
