@@ -50,7 +50,9 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
   const handler = new ReadingHandler();
   const identities = new WeakMap<Client, ProbeIdentity>();
   const topics = new WeakMap<ProbeIdentity, string>();
-  const clientsByKey = new Map<string, Client>();
+  /** Every live connection of a probe (a rotated or removed credential closes them all), and who holds each client id. */
+  const clientsByKey = new Map<string, Set<Client>>();
+  const byClientId = new Map<string, Client>();
   const probeUnits = new Map<string, { farmId: string; unitId: string | null }>();
   const counters: IngestCounters = {
     messages: 0,
@@ -188,17 +190,37 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
         logger.warn({ username, clientId: client.id }, 'MQTT connection refused: bad credentials');
         done(Object.assign(new Error('Bad username or password'), { returnCode: 4 as const }), null);
       };
+      const refuseClientId = (probeKey: string) => {
+        counters.refusedConnections++;
+        logger.warn({ username: probeKey, clientId: client.id }, 'MQTT connection refused: client id belongs to another probe');
+        done(Object.assign(new Error('Client id belongs to another probe'), { returnCode: 2 as const }), null);
+      };
+      const accept = (probe: Probe) => {
+        const identity = { probeId: probe.id, probeKey: probe.probeKey, farmId: probe.farmId, unitId: probe.unitId };
+        identities.set(client, identity);
+        if (isValidProbeKey(probe.probeKey)) topics.set(identity, readingsTopic(probe.probeKey));
+        probeUnits.set(probe.id, { farmId: probe.farmId, unitId: probe.unitId });
+        const own = clientsByKey.get(probe.probeKey) ?? new Set<Client>();
+        own.add(client);
+        clientsByKey.set(probe.probeKey, own);
+        byClientId.set(client.id, client);
+        done(null, true);
+      };
       if (!username || !password) return refuse();
       ds.getRepository(Probe)
         .findOneBy({ probeKey: username, active: true })
         .then((probe) => {
           if (!probe || !verifyProbeSecret(password.toString('utf8'), probe.secretHash)) return refuse();
-          const identity = { probeId: probe.id, probeKey: probe.probeKey, farmId: probe.farmId, unitId: probe.unitId };
-          identities.set(client, identity);
-          if (isValidProbeKey(probe.probeKey)) topics.set(identity, readingsTopic(probe.probeKey));
-          probeUnits.set(probe.id, { farmId: probe.farmId, unitId: probe.unitId });
-          clientsByKey.set(probe.probeKey, client);
-          done(null, true);
+          // aedes lets a new connection take over a connected client id ([MQTT-3.1.4-2]): without these
+          // checks any valid credential could push another probe off the broker, again and again, or
+          // squat the client id (its probe key) that probe reconnects with.
+          const holder = byClientId.get(client.id);
+          if (holder && identities.get(holder)?.probeKey !== probe.probeKey) return refuseClientId(probe.probeKey);
+          if (client.id === probe.probeKey || !isValidProbeKey(client.id)) return accept(probe);
+          return ds
+            .getRepository(Probe)
+            .existsBy({ probeKey: client.id })
+            .then((another) => (another ? refuseClientId(probe.probeKey) : accept(probe)));
         })
         .catch((err: unknown) => {
           logger.error({ err }, 'MQTT authentication lookup failed');
@@ -234,7 +256,10 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
   });
   broker.on('clientDisconnect', (client) => {
     const id = identities.get(client);
-    if (id && clientsByKey.get(id.probeKey) === client) clientsByKey.delete(id.probeKey);
+    const own = id ? clientsByKey.get(id.probeKey) : undefined;
+    own?.delete(client);
+    if (id && own && !own.size) clientsByKey.delete(id.probeKey);
+    if (byClientId.get(client.id) === client) byClientId.delete(client.id);
   });
 
   const server: Server = createServer(broker.handle);
@@ -250,9 +275,9 @@ export async function startBroker(deps: BrokerDeps): Promise<BrokerHandle> {
     port,
     status: () => (server.listening && !broker.closed ? { status: 'ok', detail: `${broker.connectedClients} probe(s) connected` } : { status: 'down' }),
     disconnectProbe(probeKey) {
-      const client = clientsByKey.get(probeKey);
+      const own = clientsByKey.get(probeKey);
       clientsByKey.delete(probeKey);
-      client?.close();
+      for (const client of own ?? []) client.close();
     },
     counters: () => structuredClone(counters),
     async close() {
