@@ -3,7 +3,8 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { farmA, farmB, meFixture, mockApi, renderWithApp } from '@/test/render';
 import { appRoutes } from '../router';
-import { navFor } from '../nav';
+import { homePathFor, navFor, splitForTabBar } from '../nav';
+import { TAB_MAX } from './tab-bar';
 
 const unauthenticated = () => ({ status: 401, body: { error: { code: 'unauthenticated', message: 'Sign in' } } });
 
@@ -17,14 +18,20 @@ describe('app shell', () => {
   });
 
   for (const role of ['hand', 'manager', 'planner', 'admin'] as const) {
+    it(`sends a ${role} from / to their own landing screen`, async () => {
+      mockApi({ 'GET /api/me': () => ({ status: 200, body: meFixture(role) }) });
+      const { router } = renderWithApp(null, { routes: appRoutes, route: '/' });
+      await waitFor(() => expect(router.state.location.pathname).toBe(homePathFor(role, farmA)), { timeout: 8000 });
+    });
+
     it(`shows a ${role} their home, their farm and only their ready screens`, async () => {
       mockApi({ 'GET /api/me': () => ({ status: 200, body: meFixture(role) }) });
-      renderWithApp(null, { routes: appRoutes, route: '/' });
+      renderWithApp(null, { routes: appRoutes, route: `/farms/${farmA}` });
       const home = await screen.findByTestId(`home-${role}`);
       expect(within(home).getByTestId('who-farm').textContent).toBe('Harrow Bend Fish Farm');
       expect(within(home).getByText(/Fish health decisions rest with the farm's veterinarian/)).toBeTruthy();
       const tabKeys = [...screen.getByTestId('tab-bar').querySelectorAll('[data-nav-key]')].map((a) => a.getAttribute('data-nav-key'));
-      expect(tabKeys).toEqual(navFor(role).slice(0, 4).map((e) => e.key));
+      expect(tabKeys).toEqual(splitForTabBar(navFor(role), TAB_MAX - 1).tabs.map((e) => e.key));
       const sideKeys = [...screen.getByTestId('side-nav').querySelectorAll('[data-nav-key]')].map((a) => a.getAttribute('data-nav-key'));
       expect(sideKeys).toEqual(navFor(role).map((e) => e.key));
     });

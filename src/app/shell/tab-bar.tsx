@@ -4,7 +4,7 @@ import { cx } from '@/components/ui/cx';
 import { Icon } from '@/components/ui/icon';
 import { navHref, splitForTabBar, type NavEntry } from '../nav';
 
-const TAB_MAX = 5;
+export const TAB_MAX = 5;
 
 const tabClass = (active: boolean) =>
   cx(
