@@ -1,5 +1,6 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import { z } from 'zod';
+import type { Role } from '../../shared/schemas/auth.schema';
 import { roleOnFarm, type AuthUser } from './auth-context';
 import { forbidden, notFound, unauthorized, validationError } from './errors';
 import type { RouteDef } from './route-registry';
@@ -55,11 +56,20 @@ export function nulCharacterPath(value: unknown, budget = 100_000): string[] | n
 const nulRefused = (path: string[]) =>
   validationError({ formErrors: [], fieldErrors: { [path[0] ?? '(root)']: ['must not contain the NUL character (U+0000)'] } });
 
-/** Builds the Express router from the route registry: authenticate → params → farm scope → role → input → handler. */
+type Authorized = { user: AuthUser | null; params: unknown; farmRole: Role | null };
+const AUTHORIZED = Symbol('gillwise.route.authorized');
+type WithAuthorized = Response & { locals: { [AUTHORIZED]?: Authorized } };
+
+/**
+ * Builds the Express router from the route registry: authenticate → params → farm scope → role, then
+ * the route's `before` middlewares (multer, rate limits), then input → handler. Access is settled
+ * before any `before` middleware runs, so an upload is never read (into memory or onto disk) for a
+ * caller the route refuses.
+ */
 export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: CookieOptions): Router {
   const router = Router();
   for (const route of routes) {
-    const handler = async (req: Request, res: Response, next: NextFunction) => {
+    const authorize = async (req: Request, res: Response, next: NextFunction) => {
       try {
         let user: AuthUser | null = null;
         const token = tokenFrom(req);
@@ -71,7 +81,7 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
         // A malformed id in the path names nothing: 404, like an id that does not exist.
         const params = route.params ? route.params.safeParse(req.params) : { success: true as const, data: req.params };
         if (!params.success || nulCharacterPath(params.data)) throw notFound();
-        let farmRole = null;
+        let farmRole: Role | null = null;
         if (route.access.kind === 'roles') {
           if (!user) throw unauthorized();
           if (route.access.farmScoped) {
@@ -86,6 +96,17 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
             if (!allowed) throw forbidden();
           }
         }
+        (res as WithAuthorized).locals[AUTHORIZED] = { user, params: params.data, farmRole };
+        next();
+      } catch (err) {
+        next(err);
+      }
+    };
+    const handler = async (req: Request, res: Response, next: NextFunction) => {
+      try {
+        const authorized = (res as WithAuthorized).locals[AUTHORIZED];
+        if (!authorized) throw new Error(`route ${route.method} ${route.path} ran without its access check`);
+        const { user, params, farmRole } = authorized;
         const query = route.query ? route.query.safeParse(req.query) : { success: true as const, data: req.query };
         if (!query.success) throw validationError(fieldErrors(query.error), 'Some query parameters are not valid.');
         const nulInQuery = nulCharacterPath(query.data);
@@ -95,7 +116,7 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
         const nulInBody = nulCharacterPath(body.data);
         if (nulInBody) throw nulRefused(nulInBody);
         const result = await route.handler({
-          params: params.data,
+          params,
           query: query.data,
           body: body.data,
           user,
@@ -112,7 +133,7 @@ export function buildRouter(routes: RouteDef[], auth: Authenticator, cookie: Coo
         next(err);
       }
     };
-    router[route.method](route.path, ...(route.before ?? []), handler);
+    router[route.method](route.path, authorize, ...(route.before ?? []), handler);
   }
   return router;
 }
