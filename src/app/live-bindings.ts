@@ -4,6 +4,7 @@ import { observationLiveEvents } from '@/features/observations/api/observations'
 import { pondsideLiveEvents } from '@/features/pondside/api/live';
 import { taskLiveEvents } from '@/features/tasks/api/tasks';
 import { treatmentLiveEvents } from '@/features/treatments/api/treatments';
+import { stockLiveEvents } from '@/features/stock/live';
 import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
 
 /**
@@ -19,6 +20,7 @@ const featureBindings: Array<Record<string, LiveEventKeys>> = [
   nightRoundLiveEvents,
   treatmentLiveEvents,
   observationLiveEvents,
+  stockLiveEvents,
 ];
 
 let registered = false;

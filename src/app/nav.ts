@@ -38,13 +38,13 @@ export const navRegistry: readonly NavEntry[] = [
   entry('morningReport', office, false, 'report'),
   entry('units', office, false, 'grid'),
   entry('rations', ['planner'], true, 'scoop'),
-  entry('stock', ['planner'], false, 'fish'),
-  entry('imports', ['planner'], false, 'upload'),
-  entry('records', ['manager', 'planner', 'admin'], false, 'chart'),
-  entry('audit', office, false, 'shield'),
+  entry('stock', ['planner'], true, 'fish'),
+  entry('imports', ['planner'], true, 'upload'),
+  entry('records', ['manager', 'planner', 'admin'], true, 'chart'),
+  entry('audit', office, true, 'shield'),
   entry('setup', office, true, 'sliders'),
   entry('people', ['admin'], true, 'people'),
-  entry('outbox', office, false, 'mail'),
+  entry('outbox', office, true, 'mail'),
 ];
 
 /** Every screen planned for a role, built or not (the home screen lists them). */

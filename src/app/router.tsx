@@ -28,6 +28,11 @@ export const farmRoutes: RouteObject[] = [
   { path: farmScreens.observations, lazy: lazyRoute(() => import('./routes/observations')) },
   { path: farmScreens.setup, lazy: lazyRoute(() => import('./routes/setup')) },
   { path: farmScreens.people, lazy: lazyRoute(() => import('./routes/setup-people')) },
+  { path: farmScreens.stock, lazy: lazyRoute(() => import('./routes/stock')) },
+  { path: farmScreens.imports, lazy: lazyRoute(() => import('./routes/imports')) },
+  { path: farmScreens.records, lazy: lazyRoute(() => import('./routes/records')) },
+  { path: farmScreens.audit, lazy: lazyRoute(() => import('./routes/audit')) },
+  { path: farmScreens.outbox, lazy: lazyRoute(() => import('./routes/outbox')) },
   { path: '*', lazy: lazyRoute(() => import('./routes/not-found')) },
 ];
 

@@ -51,12 +51,13 @@ function InviteForm({ farmId, actor, onInvited }: { farmId: string; actor: Role;
     }
   });
   const failure = invite.error;
-  const failureText = failure && !(isApiError(failure) && Object.keys(failure.fieldErrors).length > 0) ? requestErrorText(t, failure) : null;
+  const failureText =
+    failure && !(isApiError(failure) && Object.keys(failure.fieldErrors).length > 0) ? requestErrorText(t, failure) : null;
   return (
-    <form onSubmit={submit} noValidate className="gw-card flex flex-col gap-4 p-4" data-testid="invite-form">
+    <form onSubmit={submit} noValidate className="@container gw-card flex flex-col gap-4 self-start p-4" data-testid="invite-form">
       <h2 className="text-xl font-bold">{t('setup.people.inviteTitle')}</h2>
       <p className="text-base text-muted">{t('setup.people.inviteIntro')}</p>
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid gap-4 @xl:grid-cols-2">
         <TextField label={t('setup.people.name')} autoComplete="off" error={fieldErrorText(t, errors.name)} {...register('name')} />
         <TextField
           label={t('setup.people.email')}
@@ -68,8 +69,18 @@ function InviteForm({ farmId, actor, onInvited }: { farmId: string; actor: Role;
           error={fieldErrorText(t, errors.email, { invalid_format: t('errors.email') })}
           {...register('email')}
         />
-        <Select label={t('setup.people.role')} options={roles.map((r) => ({ value: r, label: t(`roles.${r}`) }))} error={fieldErrorText(t, errors.role)} {...register('role')} />
-        <Select label={t('setup.people.language')} hint={t('setup.people.languageHint')} options={locales.map((l) => ({ value: l, label: t(`setup.people.lang.${l}`) }))} {...register('locale')} />
+        <Select
+          label={t('setup.people.role')}
+          options={roles.map((r) => ({ value: r, label: t(`roles.${r}`) }))}
+          error={fieldErrorText(t, errors.role)}
+          {...register('role')}
+        />
+        <Select
+          label={t('setup.people.language')}
+          hint={t('setup.people.languageHint')}
+          options={locales.map((l) => ({ value: l, label: t(`setup.people.lang.${l}`) }))}
+          {...register('locale')}
+        />
       </div>
       {failureText ? (
         <Callout tone="danger" live title={t('setup.people.inviteFailed')}>
@@ -84,7 +95,17 @@ function InviteForm({ farmId, actor, onInvited }: { farmId: string; actor: Role;
 }
 
 /** People on the farm: invite by e-mail, change a role, deactivate (their sessions end at once). */
-export function PeoplePanel({ farmId, actor, timeZone, outboxHref }: { farmId: string; actor: Role; timeZone: string; outboxHref: string }) {
+export function PeoplePanel({
+  farmId,
+  actor,
+  timeZone,
+  outboxHref,
+}: {
+  farmId: string;
+  actor: Role;
+  timeZone: string;
+  outboxHref: string;
+}) {
   const { t, i18n } = useTranslation();
   const { me } = useAuth();
   const q = useQuery(setupQueries.people(farmId));
@@ -93,11 +114,16 @@ export function PeoplePanel({ farmId, actor, timeZone, outboxHref }: { farmId: s
   const manageable = (p: Person) => p.userId !== me?.user.id && (actor === 'admin' || p.role === 'hand' || p.role === 'planner');
 
   if (q.isPending) return <Spinner label={t('setup.loading')} />;
-  if (q.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, q.error)}</Callout>;
+  if (q.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, q.error)}
+      </Callout>
+    );
   const people = [...q.data].sort((a, b) => Number(b.active) - Number(a.active) || a.name.localeCompare(b.name));
 
   return (
-    <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_28rem]" data-testid="people-panel">
+    <div className="grid gap-5 xl:grid-cols-[minmax(0,1fr)_24rem]" data-testid="people-panel">
       <section className="flex flex-col gap-3" aria-labelledby="people-title">
         <h2 id="people-title" className="text-xl font-bold">
           {t('setup.people.title', { count: people.length })}
@@ -116,8 +142,13 @@ export function PeoplePanel({ farmId, actor, timeZone, outboxHref }: { farmId: s
         ) : null}
         <ul className="flex flex-col gap-2" data-testid="people-list">
           {people.map((p) => (
-            <li key={p.userId} className={cx('gw-card flex flex-wrap items-center gap-3 px-4 py-3', !p.active && 'opacity-70')} data-testid="person" data-email={p.email}>
-              <span className="min-w-0 flex-1">
+            <li
+              key={p.userId}
+              className={cx('gw-card flex flex-wrap items-center gap-3 px-4 py-3', !p.active && 'opacity-70')}
+              data-testid="person"
+              data-email={p.email}
+            >
+              <span className="min-w-[14rem] flex-1">
                 <span className="block font-bold">
                   {p.name}
                   {p.userId === me?.user.id ? <span className="ml-2 text-sm font-normal text-muted">{t('setup.people.you')}</span> : null}
@@ -134,7 +165,7 @@ export function PeoplePanel({ farmId, actor, timeZone, outboxHref }: { farmId: s
                 </span>
               </span>
               {manageable(p) ? (
-                <>
+                <div className="flex flex-wrap items-center gap-2">
                   <Select
                     label={t('setup.people.roleOf', { name: p.name })}
                     hideLabel
@@ -146,7 +177,7 @@ export function PeoplePanel({ farmId, actor, timeZone, outboxHref }: { farmId: s
                   <Button variant="ghost" onClick={() => update.mutate({ userId: p.userId, body: { active: !p.active } })}>
                     {p.active ? t('setup.people.deactivate') : t('setup.people.reactivate')}
                   </Button>
-                </>
+                </div>
               ) : (
                 <span className="rounded-full bg-abyss-50 px-3 py-1 text-sm font-bold text-abyss-900">{t(`roles.${p.role}`)}</span>
               )}

@@ -33,7 +33,13 @@ function Finding({ f, timeZone }: { f: ProbeFinding; timeZone: string }) {
   const q = 'quantity' in f ? t(`setup.quantity.${f.quantity}`) : '';
   switch (f.kind) {
     case 'silent':
-      return <>{f.lastReadingAt ? t('setup.finding.silent', { time: farmDateTime(f.lastReadingAt, timeZone, l) }) : t('setup.finding.neverReported')}</>;
+      return (
+        <>
+          {f.lastReadingAt
+            ? t('setup.finding.silent', { time: farmDateTime(f.lastReadingAt, timeZone, l) })
+            : t('setup.finding.neverReported')}
+        </>
+      );
     case 'maintenance':
       return <>{t('setup.finding.maintenance', { reason: f.reason, time: farmDateTime(f.endsAt, timeZone, l) })}</>;
     case 'flatline':
@@ -43,11 +49,33 @@ function Finding({ f, timeZone }: { f: ProbeFinding; timeZone: string }) {
     case 'drift':
       return <>{t('setup.finding.drift', { quantity: q, diff: Math.round(f.meanDifference * 100) / 100, pairs: f.pairs })}</>;
     case 'calibration_due':
-      return <>{f.nextDueAt ? t('setup.finding.calibrationDue', { quantity: q, date: farmDate(f.nextDueAt, timeZone, l) }) : t('setup.finding.neverCalibrated', { quantity: q })}</>;
+      return (
+        <>
+          {f.nextDueAt
+            ? t('setup.finding.calibrationDue', { quantity: q, date: farmDate(f.nextDueAt, timeZone, l) })
+            : t('setup.finding.neverCalibrated', { quantity: q })}
+        </>
+      );
   }
 }
 
-function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential }: { farmId: string; probe: ProbeDto; unit: UnitDto | undefined; units: readonly UnitDto[]; timeZone: string; canEdit: boolean; onCredential: (c: ProbeCredentialResponse) => void }) {
+function ProbeCard({
+  farmId,
+  probe,
+  unit,
+  units,
+  timeZone,
+  canEdit,
+  onCredential,
+}: {
+  farmId: string;
+  probe: ProbeDto;
+  unit: UnitDto | undefined;
+  units: readonly UnitDto[];
+  timeZone: string;
+  canEdit: boolean;
+  onCredential: (c: ProbeCredentialResponse) => void;
+}) {
   const { t, i18n } = useTranslation();
   const [expanded, setExpanded] = useState(false);
   const [editing, setEditing] = useState(false);
@@ -69,7 +97,13 @@ function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential
           </p>
           <p className="font-mono text-sm text-muted">{probe.probeKey}</p>
         </div>
-        <span className={cx('inline-flex items-center gap-1.5 rounded-full border-2 px-3 py-1 text-sm font-bold uppercase tracking-wide', look.className)} data-testid="probe-state">
+        <span
+          className={cx(
+            'inline-flex items-center gap-1.5 rounded-full border-2 px-3 py-1 text-sm font-bold uppercase tracking-wide',
+            look.className,
+          )}
+          data-testid="probe-state"
+        >
           <span aria-hidden="true">{look.glyph}</span>
           {t(`setup.probe.state.${probe.health.state}`)}
         </span>
@@ -84,7 +118,9 @@ function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential
       <p className="text-sm text-muted">
         {t('setup.probe.every', { seconds: probe.intervalSeconds })}
         {' · '}
-        {probe.lastSeenAt ? t('setup.probe.lastSeen', { time: farmDateTime(probe.lastSeenAt, timeZone, i18n.language) }) : t('setup.probe.neverSeen')}
+        {(probe.lastSeenAt ?? probe.health.lastReadingAt)
+          ? t('setup.probe.lastSeen', { time: farmDateTime((probe.lastSeenAt ?? probe.health.lastReadingAt)!, timeZone, i18n.language) })
+          : t('setup.probe.neverSeen')}
         {probe.batteryPct !== null ? ` · ${t('setup.probe.battery', { pct: Math.round(probe.batteryPct) })}` : ''}
         {' · '}
         {t('setup.probe.secretSince', { date: farmDate(probe.secretRotatedAt, timeZone, i18n.language) })}
@@ -120,7 +156,11 @@ function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential
                 </Button>
               </>
             ) : (
-              <Button variant="ghost" loading={update.isPending} onClick={() => update.mutate({ probeId: probe.id, body: { active: true } })}>
+              <Button
+                variant="ghost"
+                loading={update.isPending}
+                onClick={() => update.mutate({ probeId: probe.id, body: { active: true } })}
+              >
                 {t('setup.probe.reactivate')}
               </Button>
             )}
@@ -159,7 +199,11 @@ function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential
       <Dialog
         open={confirm !== null}
         onClose={() => setConfirm(null)}
-        title={confirm === 'rotate' ? t('setup.probe.rotateTitle', { label: probe.label }) : t('setup.probe.deactivateTitle', { label: probe.label })}
+        title={
+          confirm === 'rotate'
+            ? t('setup.probe.rotateTitle', { label: probe.label })
+            : t('setup.probe.deactivateTitle', { label: probe.label })
+        }
         description={confirm === 'rotate' ? t('setup.probe.rotateBody') : t('setup.probe.deactivateBody')}
         footer={
           <>
@@ -172,7 +216,16 @@ function ProbeCard({ farmId, probe, unit, units, timeZone, canEdit, onCredential
               onClick={() => {
                 const which = confirm;
                 setConfirm(null);
-                if (which === 'rotate') rotate.mutate({ probeId: probe.id }, { onSuccess: (c) => { onCredential(c); rotate.reset(); } });
+                if (which === 'rotate')
+                  rotate.mutate(
+                    { probeId: probe.id },
+                    {
+                      onSuccess: (c) => {
+                        onCredential(c);
+                        rotate.reset();
+                      },
+                    },
+                  );
                 else deactivate.mutate({ probeId: probe.id });
               }}
             >
@@ -197,9 +250,19 @@ export function ProbesPanel({ farmId, timeZone, canEdit }: { farmId: string; tim
   const byId = new Map(unitList.map((u) => [u.id, u]));
 
   if (probes.isPending || units.isPending) return <Spinner label={t('setup.loading')} />;
-  if (probes.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, probes.error)}</Callout>;
+  if (probes.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, probes.error)}
+      </Callout>
+    );
 
-  const list = [...probes.data].sort((a, b) => Number(b.active) - Number(a.active) || (byId.get(a.unitId ?? '')?.walkOrder ?? 1e9) - (byId.get(b.unitId ?? '')?.walkOrder ?? 1e9) || a.label.localeCompare(b.label));
+  const list = [...probes.data].sort(
+    (a, b) =>
+      Number(b.active) - Number(a.active) ||
+      (byId.get(a.unitId ?? '')?.walkOrder ?? 1e9) - (byId.get(b.unitId ?? '')?.walkOrder ?? 1e9) ||
+      a.label.localeCompare(b.label),
+  );
 
   return (
     <div className="flex flex-col gap-4" data-testid="probes-panel">

@@ -29,13 +29,30 @@ interface RuleRow {
   bySalinity: ThresholdRuleDto['bySalinity'];
 }
 
-const toRow = (r: ThresholdRuleDto): RuleRow => ({ metric: r.metric, watch: numberText(r.watch), act: numberText(r.act), basis: r.basis, source: r.source, bySalinity: r.bySalinity });
+const toRow = (r: ThresholdRuleDto): RuleRow => ({
+  metric: r.metric,
+  watch: numberText(r.watch),
+  act: numberText(r.act),
+  basis: r.basis,
+  source: r.source,
+  bySalinity: r.bySalinity,
+});
 
 function fmtLimit(v: number | null, locale: string) {
   return v === null ? '—' : new Intl.NumberFormat(locale, { maximumFractionDigits: 4 }).format(v);
 }
 
-function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; profile: ThresholdProfileDto; units: readonly UnitDto[]; canEdit: boolean }) {
+function ProfileCard({
+  farmId,
+  profile,
+  units,
+  canEdit,
+}: {
+  farmId: string;
+  profile: ThresholdProfileDto;
+  units: readonly UnitDto[];
+  canEdit: boolean;
+}) {
   const { t, i18n } = useTranslation();
   const update = useUpdateThresholdProfile(farmId);
   const [rows, setRows] = useState<RuleRow[] | null>(null);
@@ -50,7 +67,14 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
   const save = async () => {
     if (!rows) return;
     const body = {
-      rules: rows.map((r) => ({ metric: r.metric, watch: numberOrNull(r.watch), act: numberOrNull(r.act), basis: r.basis, source: r.source.trim(), ...(r.bySalinity ? { bySalinity: r.bySalinity } : {}) })),
+      rules: rows.map((r) => ({
+        metric: r.metric,
+        watch: numberOrNull(r.watch),
+        act: numberOrNull(r.act),
+        basis: r.basis,
+        source: r.source.trim(),
+        ...(r.bySalinity ? { bySalinity: r.bySalinity } : {}),
+      })),
       ...(reason.trim() ? { reason: reason.trim() } : {}),
     };
     const parsed = updateThresholdProfileRequestSchema.safeParse(body);
@@ -60,7 +84,15 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
         const [a, i, f] = issue.path;
         const key = a === 'rules' && typeof i === 'number' ? `${i}.${String(f ?? 'watch')}` : String(a);
         next[key] ??=
-          f === 'source' ? t('setup.thr.sourceRequired') : f === 'watch' && issue.code === 'custom' && issue.message.includes('give') ? t('setup.thr.oneLimit') : f === 'watch' && issue.code === 'custom' ? t('setup.thr.order') : a === 'reason' ? t('setup.thr.reasonShort') : t('setup.thr.invalid');
+          f === 'source'
+            ? t('setup.thr.sourceRequired')
+            : f === 'watch' && issue.code === 'custom' && issue.message.includes('give')
+              ? t('setup.thr.oneLimit')
+              : f === 'watch' && issue.code === 'custom'
+                ? t('setup.thr.order')
+                : a === 'reason'
+                  ? t('setup.thr.reasonShort')
+                  : t('setup.thr.invalid');
       }
       return setErrors(next);
     }
@@ -87,7 +119,13 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
           </p>
         </div>
         {canEdit && !editing ? (
-          <Button variant="secondary" onClick={() => { setRows(profile.rules.map(toRow)); setSavedNote(false); }}>
+          <Button
+            variant="secondary"
+            onClick={() => {
+              setRows(profile.rules.map(toRow));
+              setSavedNote(false);
+            }}
+          >
             {t('setup.thr.edit')}
           </Button>
         ) : null}
@@ -98,10 +136,24 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
           <table className="w-full border-collapse text-base">
             <thead className="bg-abyss-50 text-left">
               <tr>
-                <th scope="col" className="border-b-2 border-line px-3 py-2">{t('setup.thr.metric')}</th>
-                <th scope="col" className="border-b-2 border-line px-3 py-2 text-right"><span aria-hidden="true" className="text-watch">▲ </span>{t('setup.thr.watch')}</th>
-                <th scope="col" className="border-b-2 border-line px-3 py-2 text-right"><span aria-hidden="true" className="text-act">◆ </span>{t('setup.thr.act')}</th>
-                <th scope="col" className="border-b-2 border-line px-3 py-2">{t('setup.thr.source')}</th>
+                <th scope="col" className="border-b-2 border-line px-3 py-2">
+                  {t('setup.thr.metric')}
+                </th>
+                <th scope="col" className="whitespace-nowrap border-b-2 border-line px-3 py-2 text-right">
+                  <span aria-hidden="true" className="text-watch">
+                    ▲{' '}
+                  </span>
+                  {t('setup.thr.watch')}
+                </th>
+                <th scope="col" className="whitespace-nowrap border-b-2 border-line px-3 py-2 text-right">
+                  <span aria-hidden="true" className="text-act">
+                    ◆{' '}
+                  </span>
+                  {t('setup.thr.act')}
+                </th>
+                <th scope="col" className="border-b-2 border-line px-3 py-2">
+                  {t('setup.thr.source')}
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -109,14 +161,20 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
                 <tr key={r.metric} className="border-b border-line align-top last:border-b-0">
                   <th scope="row" className="px-3 py-2 text-left">
                     {t(`setup.metric.${r.metric}`)}
-                    <span className="block text-sm font-normal text-muted">{r.basis} · {t(metricDirection[r.metric] === 'upper' ? 'setup.thr.upper' : 'setup.thr.lower')}</span>
+                    <span className="block text-sm font-normal text-muted">
+                      {r.basis} · {t(metricDirection[r.metric] === 'upper' ? 'setup.thr.upper' : 'setup.thr.lower')}
+                    </span>
                   </th>
                   <td className="px-3 py-2 text-right tabular-nums">{fmtLimit(r.watch, i18n.language)}</td>
                   <td className="px-3 py-2 text-right tabular-nums">
                     {fmtLimit(r.act, i18n.language)}
-                    {r.bySalinity ? <span className="block text-sm text-muted">{t('setup.thr.bySalinity', { count: r.bySalinity.length })}</span> : null}
+                    {r.bySalinity ? (
+                      <span className="block text-sm text-muted">{t('setup.thr.bySalinity', { count: r.bySalinity.length })}</span>
+                    ) : null}
                   </td>
-                  <td className="px-3 py-2 text-sm" data-testid="threshold-source">{r.source}</td>
+                  <td className="px-3 py-2 text-sm" data-testid="threshold-source">
+                    {r.source}
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -125,14 +183,43 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
       ) : (
         <div className="flex flex-col gap-3" data-testid="threshold-editor">
           {rows.map((r, i) => (
-            <fieldset key={r.metric} className="grid gap-3 rounded-xl border-2 border-line bg-paper p-3 sm:grid-cols-[minmax(0,1fr)_8rem_8rem_10rem]">
+            <fieldset
+              key={r.metric}
+              className="grid gap-3 rounded-xl border-2 border-line bg-paper p-3 sm:grid-cols-[minmax(0,1fr)_8rem_8rem_10rem]"
+            >
               <legend className="px-1 text-base font-bold">
-                {t(`setup.metric.${r.metric}`)} <span className="font-normal text-muted">({t(metricDirection[r.metric] === 'upper' ? 'setup.thr.upper' : 'setup.thr.lower')})</span>
+                {t(`setup.metric.${r.metric}`)}{' '}
+                <span className="font-normal text-muted">
+                  ({t(metricDirection[r.metric] === 'upper' ? 'setup.thr.upper' : 'setup.thr.lower')})
+                </span>
               </legend>
-              <TextField containerClassName="sm:col-span-4" label={t('setup.thr.source')} hint={t('setup.thr.sourceHint')} value={r.source} onChange={(e) => setRow(i, { source: e.target.value })} error={errors[`${i}.source`]} />
-              <NumberField label={t('setup.thr.watch')} value={r.watch} onChange={(e) => setRow(i, { watch: e.target.value })} error={errors[`${i}.watch`]} />
-              <NumberField label={t('setup.thr.act')} value={r.act} onChange={(e) => setRow(i, { act: e.target.value })} error={errors[`${i}.act`]} />
-              <Select label={t('setup.thr.basis')} options={metricBases[r.metric].map((b) => ({ value: b, label: b }))} value={r.basis} onChange={(e) => setRow(i, { basis: e.target.value })} error={errors[`${i}.basis`]} />
+              <TextField
+                containerClassName="sm:col-span-4"
+                label={t('setup.thr.source')}
+                hint={t('setup.thr.sourceHint')}
+                value={r.source}
+                onChange={(e) => setRow(i, { source: e.target.value })}
+                error={errors[`${i}.source`]}
+              />
+              <NumberField
+                label={t('setup.thr.watch')}
+                value={r.watch}
+                onChange={(e) => setRow(i, { watch: e.target.value })}
+                error={errors[`${i}.watch`]}
+              />
+              <NumberField
+                label={t('setup.thr.act')}
+                value={r.act}
+                onChange={(e) => setRow(i, { act: e.target.value })}
+                error={errors[`${i}.act`]}
+              />
+              <Select
+                label={t('setup.thr.basis')}
+                options={metricBases[r.metric].map((b) => ({ value: b, label: b }))}
+                value={r.basis}
+                onChange={(e) => setRow(i, { basis: e.target.value })}
+                error={errors[`${i}.basis`]}
+              />
               <div className="flex items-end">
                 <Button variant="ghost" onClick={() => setRows((rs) => (rs ? rs.filter((_, j) => j !== i) : rs))}>
                   {t('setup.thr.remove')}
@@ -143,15 +230,28 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
           {unused.length > 0 ? (
             <Select
               label={t('setup.thr.addRule')}
-              options={[{ value: '', label: t('setup.thr.pickMetric') }, ...unused.map((m) => ({ value: m, label: t(`setup.metric.${m}`) }))]}
+              options={[
+                { value: '', label: t('setup.thr.pickMetric') },
+                ...unused.map((m) => ({ value: m, label: t(`setup.metric.${m}`) })),
+              ]}
               value=""
               onChange={(e) => {
                 const m = e.target.value as ThresholdMetric;
-                if (m) setRows((rs) => [...(rs ?? []), { metric: m, watch: '', act: '', basis: metricBases[m][0]!, source: '', bySalinity: undefined }]);
+                if (m)
+                  setRows((rs) => [
+                    ...(rs ?? []),
+                    { metric: m, watch: '', act: '', basis: metricBases[m][0]!, source: '', bySalinity: undefined },
+                  ]);
               }}
             />
           ) : null}
-          <TextField label={t('setup.thr.reason')} hint={t('setup.thr.reasonHint')} value={reason} onChange={(e) => setReason(e.target.value)} error={errors.reason} />
+          <TextField
+            label={t('setup.thr.reason')}
+            hint={t('setup.thr.reasonHint')}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            error={errors.reason}
+          />
           {errors.rules ? <p className="font-bold text-act">{t('setup.thr.rulesInvalid')}</p> : null}
           {update.error ? (
             <Callout tone="danger" live title={t('setup.thr.saveFailed')}>
@@ -159,7 +259,13 @@ function ProfileCard({ farmId, profile, units, canEdit }: { farmId: string; prof
             </Callout>
           ) : null}
           <div className="flex flex-wrap justify-end gap-2">
-            <Button variant="ghost" onClick={() => { setRows(null); setErrors({}); }}>
+            <Button
+              variant="ghost"
+              onClick={() => {
+                setRows(null);
+                setErrors({});
+              }}
+            >
               {t('setup.cancel')}
             </Button>
             <Button variant="primary" loading={update.isPending} onClick={() => void save()}>
@@ -178,7 +284,12 @@ export function ThresholdsPanel({ farmId, canEdit }: { farmId: string; canEdit: 
   const q = useQuery(setupQueries.thresholds(farmId));
   const units = useQuery(setupQueries.units(farmId));
   if (q.isPending) return <Spinner label={t('setup.loading')} />;
-  if (q.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, q.error)}</Callout>;
+  if (q.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, q.error)}
+      </Callout>
+    );
   return (
     <div className="flex flex-col gap-4" data-testid="thresholds-panel">
       <Callout tone="caution" title={t('cautions.title')}>

@@ -1,0 +1,2 @@
+export { auditQueries } from './api/audit-queries';
+export { AuditScreen } from './components/audit-screen';

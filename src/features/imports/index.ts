@@ -1,0 +1,2 @@
+export { importQueries } from './api/imports-api';
+export { ImportsScreen } from './components/imports-screen';

@@ -1,0 +1,2 @@
+export { outboxQueries } from './api/outbox-queries';
+export { OutboxScreen } from './components/outbox-screen';

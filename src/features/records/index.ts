@@ -1,0 +1,2 @@
+export { recordQueries } from './api/records-queries';
+export { RecordsScreen } from './components/records-screen';

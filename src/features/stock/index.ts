@@ -1,0 +1,3 @@
+export { stockQueries } from './api/stock-queries';
+export { StockScreen } from './components/stock-screen';
+export { stockLiveEvents } from './live';
