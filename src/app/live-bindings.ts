@@ -1,3 +1,7 @@
+import { alertLiveEvents } from '@/features/alerts/live';
+import { mapLiveEvents } from '@/features/map/live';
+import { reportLiveEvents } from '@/features/reports/live';
+import { unitLiveEvents } from '@/features/units/live';
 import { rationLiveEvents } from '@/features/rations/live';
 import { nightRoundLiveEvents } from '@/features/night-round/api/night-round';
 import { observationLiveEvents } from '@/features/observations/api/observations';
@@ -13,7 +17,10 @@ import { registerLiveEvent, type LiveEventKeys } from '@/lib/live-events';
  * they are composed here because features never import each other.
  */
 const featureBindings: Array<Record<string, LiveEventKeys>> = [
-  // alertLiveEvents, unitLiveEvents, ... as features land
+  mapLiveEvents,
+  unitLiveEvents,
+  alertLiveEvents,
+  reportLiveEvents,
   rationLiveEvents,
   pondsideLiveEvents,
   taskLiveEvents,

@@ -18,6 +18,11 @@ export function lazyRoute(load: () => Promise<RouteModule>): () => Promise<{ Com
  */
 export const farmRoutes: RouteObject[] = [
   { index: true, lazy: lazyRoute(() => import('./routes/farm-home')) },
+  { path: farmScreens.map, lazy: lazyRoute(() => import('./routes/map')) },
+  { path: farmScreens.alerts, lazy: lazyRoute(() => import('./routes/alerts')) },
+  { path: farmScreens.units, lazy: lazyRoute(() => import('./routes/units')) },
+  { path: farmScreens.unit, lazy: lazyRoute(() => import('./routes/unit')) },
+  { path: farmScreens.morningReport, lazy: lazyRoute(() => import('./routes/morning-report')) },
   { path: farmScreens.rations, lazy: lazyRoute(() => import('./routes/rations')) },
   { path: farmScreens.tasks, lazy: lazyRoute(() => import('./routes/tasks')) },
   { path: farmScreens.pondside, lazy: lazyRoute(() => import('./routes/pondside')) },
