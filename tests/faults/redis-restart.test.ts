@@ -132,6 +132,7 @@ describe('Redis restarted with append-only persistence', () => {
       results,
       lost: grand - results,
       seconds: ((Date.now() - started) / 1000).toFixed(1),
+      workerErrorLines: errorLines(worker!).length,
       healthDuringOutage: `${health.status}/${health.redis}`,
       healthMs,
     });
@@ -142,6 +143,9 @@ describe('Redis restarted with append-only persistence', () => {
     expect(worker.pid).toBe(workerPid);
     expect(done.failed).toBe(0);
     expect(results).toBe(grand);
-    expect(errorLines(worker).filter((l) => !/ECONNREFUSED|Connection is closed|ECONNRESET/.test(l))).toEqual([]);
+    // While Redis is away the worker logs connection errors, and a job active across the restart can
+    // lose its lock (BullMQ then moves it back and runs it again): expected, as long as nothing else is.
+    const expected = /ECONNREFUSED|ECONNRESET|Connection is closed|Missing lock for job|Lock mismatch/;
+    expect(errorLines(worker).filter((l) => !expected.test(l))).toEqual([]);
   });
 });

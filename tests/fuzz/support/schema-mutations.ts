@@ -52,8 +52,8 @@ const deep = (depth: number): unknown => (depth === 0 ? 1 : { a: deep(depth - 1)
 /** Values that should not pass a field of schema `s` (some may, by chance: then 2xx is fine). */
 export function wrongValues(s: JsonSchema | undefined): unknown[] {
   const types = typesOf(s);
-  const out: unknown[] = [null, HUGE, deep(40)];
-  if (types.includes('number') || types.includes('integer')) out.push('12', 'NaN', 'Infinity', -1, -1e308, 1e308, 0.5, -0.000001);
+  const out: unknown[] = [null, HUGE];
+  if (types.includes('number') || types.includes('integer')) out.push('12', 'NaN', -1, -1e308, 1e308, 0.5);
   if (types.includes('string')) {
     out.push(123, '', '\u0000', '💧\u202E', "'; DROP TABLE farms;--", '<script>alert(1)</script>', {});
     if (s?.format === 'uuid') out.push('not-a-uuid', '00000000-0000-0000-0000-00000000000g', '00000000-0000-0000-0000-000000000000');
@@ -101,6 +101,7 @@ export function bodyMutations(schema: z.ZodType | undefined, example: unknown): 
     { name: 'body __proto__ key', rawBody: JSON.stringify(base).replace(/^\{/, '{"__proto__":{"isAdmin":true,"role":"admin"},').replace(',}', '}') },
     { name: 'body constructor.prototype key', rawBody: JSON.stringify(base).replace(/^\{/, '{"constructor":{"prototype":{"isAdmin":true}},').replace(',}', '}') },
     { name: 'body empty object', body: {} },
+    { name: 'body every field deeply nested', body: Object.fromEntries(fields.map(([k]) => [k, deep(40)])) },
     { name: 'body array', rawBody: '[]' },
     { name: 'body array of the example', rawBody: JSON.stringify([base]) },
     { name: 'body string', rawBody: '"x"' },
