@@ -5,7 +5,10 @@ import { startTestApp, type TestApp } from '../setup/test-app';
 import { launchBrowser, signIn, viewports, type TestBrowser } from './browser';
 
 async function countTests(app: TestApp, unitId: string, since: Date): Promise<number> {
-  const rows = (await app.ds.query('SELECT count(*)::int AS n FROM water_tests WHERE unit_id = $1 AND created_at >= $2', [unitId, since.toISOString()])) as Array<{ n: number }>;
+  const rows = (await app.ds.query('SELECT count(*)::int AS n FROM water_tests WHERE unit_id = $1 AND created_at >= $2', [
+    unitId,
+    since.toISOString(),
+  ])) as Array<{ n: number }>;
   return rows[0]?.n ?? 0;
 }
 
@@ -104,7 +107,9 @@ describe('pondside entries made without signal', () => {
     const first = await page.request.post(`${baseUrl}/api/farms/${farmId}/units/${p3}/tests`, { data: body, headers });
     const second = await page.request.post(`${baseUrl}/api/farms/${farmId}/units/${p3}/tests`, { data: body, headers });
     expect([first.status(), second.status()]).toEqual([201, 200]);
-    const rows = (await app.ds.query('SELECT count(*)::int AS n FROM water_tests WHERE client_id = $1', [clientId])) as Array<{ n: number }>;
+    const rows = (await app.ds.query('SELECT count(*)::int AS n FROM water_tests WHERE client_id = $1', [clientId])) as Array<{
+      n: number;
+    }>;
     expect(rows[0]?.n).toBe(1);
     await page.close();
   });

@@ -106,7 +106,7 @@ function PondCard({
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
   const tUnit = prefs.temperatureUnit === 'F' ? '°F' : '°C';
-  const temp = (c: number) => `${formatNumber(fromCelsius(c, prefs.temperatureUnit), lang, 1)} ${tUnit}`;
+  const temp = (c: number) => `${formatNumber(fromCelsius(c, prefs.temperatureUnit), lang, 1)}\u00a0${tUnit}`;
   const probeDo = status?.latest.dissolved_oxygen;
   const probeT = status?.latest.water_temperature;
   const probeAerator = status?.latest.aerator_running;
@@ -193,16 +193,18 @@ function PondCard({
 
       {saved ? (
         <div className="flex flex-col gap-2">
-          <p className="flex flex-wrap items-center gap-2 rounded-xl bg-clear-soft px-3 py-2 text-base font-bold text-clear-ink">
-            <Icon name="check" />
-            {t('nightRound.saved', { time: farmClock(saved.at, timeZone, lang) })}{' '}
-            {[
-              saved.doMgL !== null ? t('nightRound.do', { v: formatNumber(saved.doMgL, lang, 1) }) : null,
-              saved.temperatureC !== null ? temp(saved.temperatureC) : null,
-              saved.aeratorOn ? t('nightRound.aeratorOn') : null,
-            ]
-              .filter(Boolean)
-              .join(' · ')}
+          <p className="flex items-start gap-2 rounded-xl bg-clear-soft px-3 py-2 text-base font-bold text-clear-ink">
+            <Icon name="check" className="mt-0.5 shrink-0" />
+            <span>
+              {t('nightRound.saved', { time: farmClock(saved.at, timeZone, lang) })}{' '}
+              {[
+                saved.doMgL !== null ? t('nightRound.do', { v: formatNumber(saved.doMgL, lang, 1) }) : null,
+                saved.temperatureC !== null ? temp(saved.temperatureC) : null,
+                saved.aeratorOn ? t('nightRound.aeratorOn') : null,
+              ]
+                .filter(Boolean)
+                .join(' · ')}
+            </span>
           </p>
           <p className="text-base font-bold" data-testid="night-send-state" data-state={refused ? 'refused' : waiting ? 'waiting' : 'sent'}>
             {refused ? (
@@ -243,7 +245,7 @@ function PondCard({
             </p>
           ) : null}
           {errors.form ? <p className="text-base font-bold text-act">◆ {t('nightRound.errors.empty')}</p> : null}
-          <div className="grid grid-cols-2 gap-3">
+          <div className="grid gap-3 sm:grid-cols-2">
             <button
               type="button"
               aria-pressed={entry.aeratorOn}

@@ -439,16 +439,15 @@ export function PondsideTest({ farmId, timeZone, unitIdFromUrl, labelId, onUnitC
           </Button>
         </Callout>
       ) : (
-        <UnitPicker rows={rows} selectedId={values.unitId} onSelect={chooseUnit} position={position} error={err('unitId')} />
+        <UnitPicker
+          rows={rows}
+          selectedId={values.unitId}
+          onSelect={chooseUnit}
+          position={position}
+          error={err('unitId')}
+          statusOf={(id) => statusQ.data?.units.find((u) => u.id === id)?.status ?? null}
+        />
       )}
-      {unit && labelHref ? (
-        <p className="-mt-4">
-          <Link to={labelHref(unit.id)} className="gw-link inline-flex min-h-12 items-center gap-2">
-            <Icon name="grid" size={20} />
-            {t('pondside.printLabel', { code: unit.code })}
-          </Link>
-        </p>
-      ) : null}
 
       <section aria-labelledby="kit-title" className="flex flex-col gap-4">
         <h2 id="kit-title" className="text-xl font-bold">
@@ -471,8 +470,10 @@ export function PondsideTest({ farmId, timeZone, unitIdFromUrl, labelId, onUnitC
         />
         {values.method === 'nessler' ? (
           <Callout tone="caution" title={t('pondside.nessler.title')}>
-            <p>{t('cautions.nessler')}</p>
-            <p>{t('pondside.nessler.interference')}</p>
+            <span className="flex flex-col gap-2">
+              <span>{t('cautions.nessler')}</span>
+              <span>{t('pondside.nessler.interference')}</span>
+            </span>
           </Callout>
         ) : null}
         {values.method === 'nessler' && interfering ? (
@@ -492,7 +493,7 @@ export function PondsideTest({ farmId, timeZone, unitIdFromUrl, labelId, onUnitC
             choices={basisChoices}
             onChange={(b) => setValue('basis', b, { shouldValidate: formState.isSubmitted })}
             error={err('basis')}
-            columns={3}
+            columns={1}
           />
         ) : null}
       </section>
@@ -652,8 +653,17 @@ export function PondsideTest({ farmId, timeZone, unitIdFromUrl, labelId, onUnitC
             previewAlt={t('pondside.photo.previewAlt')}
           />
         )}
+        {unit && labelHref ? (
+          <p>
+            <Link to={labelHref(unit.id)} className="gw-link inline-flex min-h-12 items-center gap-2">
+              <Icon name="grid" size={20} />
+              {t('pondside.printLabel', { code: unit.code })}
+            </Link>
+          </p>
+        ) : null}
       </section>
 
+      <p className="-mb-4 text-center text-sm text-muted">{t('pondside.saveNote')}</p>
       <div className="sticky bottom-[calc(4rem+env(safe-area-inset-bottom))] z-20 -mx-4 flex flex-col gap-2 border-t-2 border-line bg-paper/95 px-4 py-3 backdrop-blur sm:-mx-6 sm:px-6 lg:bottom-0 lg:mx-0 lg:rounded-t-xl lg:px-0">
         {shownNh3 !== null ? (
           <p className="flex items-center justify-between gap-3 text-lg font-bold" aria-hidden="true">
@@ -666,7 +676,6 @@ export function PondsideTest({ farmId, timeZone, unitIdFromUrl, labelId, onUnitC
         <Button type="submit" variant="accent" size="lg" fullWidth loading={formState.isSubmitting} data-testid="save-test">
           {editing ? t('pondside.resend') : t('pondside.save')}
         </Button>
-        <p className="text-center text-sm text-muted">{t('pondside.saveNote')}</p>
       </div>
     </form>
   );

@@ -7,10 +7,12 @@ import { CautionList } from '@/components/cautions';
 import { Button } from '@/components/ui/button';
 import { Callout } from '@/components/ui/callout';
 import { Spinner } from '@/components/ui/spinner';
+import { StatusBadge } from '@/components/ui/status-badge';
 import { waterTestQueries } from '../api/water-tests';
 import { useOutboxEntries, useSentRecord } from '../hooks/use-outbox';
 import { farmClock, formatConcentration, formatNumber } from '../lib/format';
 import type { InstantResult } from '../lib/instant-result';
+import { checkAgainstRules, worstLevel } from '../lib/levels';
 import { outbox, type OutboxEntry } from '../lib/outbox';
 import { AmmoniaReadout, ValueReadout, type ProfileRules } from './ammonia-readout';
 import { InstantValues, StoredProvenance } from './provenance';
@@ -114,7 +116,17 @@ function Flags({ result }: { result: FreeAmmoniaResultDto }) {
   );
 }
 
-function Forecast({ result, prefs, timeZone }: { result: FreeAmmoniaResultDto; prefs: DisplayPrefs; timeZone: string }) {
+function Forecast({
+  result,
+  prefs,
+  timeZone,
+  profile,
+}: {
+  result: FreeAmmoniaResultDto;
+  prefs: DisplayPrefs;
+  timeZone: string;
+  profile: ProfileRules | null;
+}) {
   const { t, i18n } = useTranslation();
   const peak = result.forecastPeak;
   if (!peak) return null;
@@ -123,10 +135,21 @@ function Forecast({ result, prefs, timeZone }: { result: FreeAmmoniaResultDto; p
   const unit = `${prefs.concentrationUnit === 'ppm' ? 'ppm' : 'mg/L'} ${asN ? 'NH3-N' : 'NH3'}`;
   const measured = result.nh3MgL ?? 0;
   const ratio = measured > 0 ? peak.nh3MgL / measured : null;
+  const level = profile
+    ? worstLevel(
+        checkAgainstRules(profile.rules, {
+          analyte: 'total_ammonia',
+          nh3MgL: peak.nh3MgL,
+          tanMgL: result.tanMgL ?? undefined,
+          salinityPpt: result.salinityPpt,
+        }).filter((c) => c.metric === 'nh3'),
+      )
+    : null;
   return (
     <section aria-labelledby="peak-title" className="gw-card flex flex-col gap-2 px-4 py-3" data-testid="forecast-peak">
-      <h3 id="peak-title" className="text-lg font-bold">
+      <h3 id="peak-title" className="flex flex-wrap items-center justify-between gap-2 text-lg font-bold">
         {t('pondside.peak.title')}
+        {level ? <StatusBadge status={level} size="sm" /> : null}
       </h3>
       <p className="text-base">
         {t('pondside.peak.body', {
@@ -242,7 +265,7 @@ export function TestResult({ saved, timeZone, prefs, profile, windowMinutes, onN
               <StoredProvenance result={result} timeZone={timeZone} prefs={prefs} />
             </section>
             <Flags result={result} />
-            <Forecast result={result} prefs={prefs} timeZone={timeZone} />
+            <Forecast result={result} prefs={prefs} timeZone={timeZone} profile={profile} />
             {instant?.status === 'ok' && Math.abs(instant.nh3MgL - result.nh3MgL) > 0.0005 ? (
               <p className="text-sm text-muted">
                 {t('pondside.result.replaced', {

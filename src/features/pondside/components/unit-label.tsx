@@ -25,27 +25,32 @@ const PRINT_CSS = `
 
 const svgSrc = (svg: string) => `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`;
 
-function LabelCard({ code, name, qr, url }: { code: string; name: string; qr: string; url: string }) {
+function LabelCard({ code, name, qr, labelId }: { code: string; name: string; qr: string; labelId: string }) {
   const { t } = useTranslation();
   return (
-    <article className="gw-label flex items-center gap-5 rounded-2xl border-[3px] border-abyss-900 bg-white p-5 text-black">
-      <img src={svgSrc(qr)} alt={t('pondside.label.qrAlt', { code })} className="size-44 shrink-0 sm:size-52" data-testid="label-qr" />
-      <div className="flex min-w-0 flex-1 flex-col gap-2">
-        <p className="text-6xl font-bold leading-none tracking-tight">{code}</p>
-        <p className="text-xl font-bold leading-tight">{name}</p>
-        <p className="text-base leading-snug">
-          <span lang="en" className="block">
-            {t('pondside.label.scan', { lng: 'en' })}
-          </span>
-          <span lang="es" className="block">
-            {t('pondside.label.scan', { lng: 'es' })}
-          </span>
-        </p>
-        <p className="flex items-center gap-2 text-sm">
-          <GillwiseMark size={22} />
-          <span className="break-all">{url}</span>
-        </p>
+    <article className="gw-label flex flex-col overflow-hidden rounded-2xl border-[3px] border-abyss-900 bg-white text-black">
+      <div className="flex flex-col items-center gap-4 p-4 sm:flex-row sm:items-center">
+        <img src={svgSrc(qr)} alt={t('pondside.label.qrAlt', { code })} className="size-48 shrink-0" data-testid="label-qr" />
+        <div className="flex min-w-0 flex-1 flex-col gap-2 text-center sm:text-left">
+          <p className="text-7xl font-bold leading-none tracking-tight">{code}</p>
+          <p className="text-xl font-bold leading-tight">{name}</p>
+          <p className="text-base leading-snug">
+            <span lang="en" className="block font-bold">
+              {t('pondside.label.scan', { lng: 'en' })}
+            </span>
+            <span lang="es" className="block">
+              {t('pondside.label.scan', { lng: 'es' })}
+            </span>
+          </p>
+        </div>
       </div>
+      <p className="flex items-center justify-between gap-3 border-t-2 border-black px-4 py-2 text-sm">
+        <span className="inline-flex items-center gap-2 font-bold">
+          <GillwiseMark size={22} className="shrink-0" />
+          Gillwise
+        </span>
+        <span className="truncate font-mono">{labelId}</span>
+      </p>
     </article>
   );
 }
@@ -81,9 +86,9 @@ export function UnitLabel({ farmId, unitId }: { farmId: string; unitId: string }
   }, [fallbackUrl]);
 
   const data = label.data
-    ? { code: label.data.code, name: label.data.name, qr: label.data.svg, url: label.data.url }
-    : fallbackUnit && localSvg && fallbackUrl
-      ? { code: fallbackUnit.code, name: fallbackUnit.name, qr: localSvg, url: fallbackUrl }
+    ? { code: label.data.code, name: label.data.name, qr: label.data.svg, labelId: label.data.qrLabelId }
+    : fallbackUnit && localSvg
+      ? { code: fallbackUnit.code, name: fallbackUnit.name, qr: localSvg, labelId: fallbackUnit.qrLabelId }
       : null;
 
   return (

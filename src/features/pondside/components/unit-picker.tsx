@@ -4,7 +4,7 @@ import { Button } from '@/components/ui/button';
 import { cx } from '@/components/ui/cx';
 import { Sheet } from '@/components/ui/dialog';
 import { Icon } from '@/components/ui/icon';
-import { statusStyle } from '@/components/ui/status-badge';
+import { StatusBadge, statusStyle, type UnitStatus } from '@/components/ui/status-badge';
 import type { PositionStatus } from '../hooks/use-position';
 import { formatNumber } from '../lib/format';
 import type { OrderedUnit } from '../lib/unit-order';
@@ -36,7 +36,17 @@ function Distance({ m }: { m: number | null }) {
   );
 }
 
-function UnitRow({ row, selected, onPick }: { row: OrderedUnit; selected: boolean; onPick: () => void }) {
+function UnitRow({
+  row,
+  selected,
+  onPick,
+  status,
+}: {
+  row: OrderedUnit;
+  selected: boolean;
+  onPick: () => void;
+  status: UnitStatus | null;
+}) {
   const { t } = useTranslation();
   return (
     <button
@@ -53,9 +63,10 @@ function UnitRow({ row, selected, onPick }: { row: OrderedUnit; selected: boolea
         {row.unit.code}
       </span>
       <span className="min-w-0 flex-1">
-        <span className="block truncate text-lg font-bold">{row.unit.name}</span>
+        <span className="block text-lg font-bold leading-snug">{row.unit.name}</span>
         <span className="flex flex-wrap items-center gap-x-2 gap-y-1">
           <span className="text-sm text-muted">{t(`pondside.kind.${row.unit.kind}`)}</span>
+          {status ? <StatusBadge status={status} size="sm" /> : null}
           <DueChip task={row.task} />
           <Distance m={row.distanceM} />
         </span>
@@ -71,10 +82,12 @@ export interface UnitPickerProps {
   onSelect: (unitId: string) => void;
   position: { status: PositionStatus; request: () => void };
   error?: string | undefined;
+  /** The unit's status on the farm map (clear, watch, act, silent), when known. */
+  statusOf?: ((unitId: string) => UnitStatus | null) | undefined;
 }
 
 /** Which unit the test is for: the chosen one as a card, the rest nearest-first or in task order. */
-export function UnitPicker({ rows, selectedId, onSelect, position, error }: UnitPickerProps) {
+export function UnitPicker({ rows, selectedId, onSelect, position, error, statusOf }: UnitPickerProps) {
   const { t } = useTranslation();
   const [open, setOpen] = useState(false);
   const [showAll, setShowAll] = useState(false);
@@ -105,6 +118,7 @@ export function UnitPicker({ rows, selectedId, onSelect, position, error }: Unit
           <UnitRow
             row={row}
             selected={row.unit.id === selectedId}
+            status={statusOf?.(row.unit.id) ?? null}
             onPick={() => {
               onSelect(row.unit.id);
               after?.();
@@ -126,9 +140,10 @@ export function UnitPicker({ rows, selectedId, onSelect, position, error }: Unit
             {selected.unit.code}
           </span>
           <div className="min-w-0 flex-1">
-            <p className="truncate text-lg font-bold">{selected.unit.name}</p>
+            <p className="text-lg font-bold leading-snug">{selected.unit.name}</p>
             <p className="flex flex-wrap items-center gap-x-2 gap-y-1">
               <span className="text-sm text-muted">{t(`pondside.kind.${selected.unit.kind}`)}</span>
+              {statusOf?.(selected.unit.id) ? <StatusBadge status={statusOf(selected.unit.id)!} size="sm" /> : null}
               <DueChip task={selected.task} />
               <Distance m={selected.distanceM} />
             </p>
@@ -156,8 +171,8 @@ export function UnitPicker({ rows, selectedId, onSelect, position, error }: Unit
       ) : null}
       <Sheet open={open} onClose={() => setOpen(false)} title={t('pondside.unit.choose')}>
         <div className="flex flex-col gap-3">
-          {locate}
-          {list(rows, () => setOpen(false))}
+          {open ? locate : null}
+          {open ? list(rows, () => setOpen(false)) : null}
         </div>
       </Sheet>
     </section>

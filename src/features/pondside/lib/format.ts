@@ -53,5 +53,5 @@ export function fromDisplayTemperature(value: number, unit: TemperatureUnit): nu
 }
 
 export function formatTemperature(temperatureC: number, unit: TemperatureUnit, locale: string): string {
-  return `${formatNumber(toDisplayTemperature(temperatureC, unit), locale, 1)} ${temperatureSymbol(unit)}`;
+  return `${formatNumber(toDisplayTemperature(temperatureC, unit), locale, 1)}\u00a0${temperatureSymbol(unit)}`;
 }

@@ -83,7 +83,7 @@ function TaskCard({ task, href, timeZone }: { task: Task; href: string; timeZone
           <span aria-hidden="true">{style.glyph}</span>
           {overdue ? t('tasks.overdue', { count: task.daysOverdue }) : t('tasks.dueToday')}
         </span>
-        <span className="mt-1 block truncate text-lg font-bold text-ink">{task.name}</span>
+        <span className="mt-1 block text-lg font-bold leading-snug text-ink">{task.name}</span>
         <span className="block text-sm text-muted">
           {t(reasonKey(task), { count: task.everyDays })}
           {' · '}
@@ -102,32 +102,44 @@ function RationSheet({ sheet }: { sheet: RationSheetDto }) {
   const { t, i18n } = useTranslation();
   const lang = i18n.language;
   const rows = [...sheet.rows].sort((a, b) => a.unit.walkOrder - b.unit.walkOrder);
+  const undecided = rows.filter((r) => r.toFeedKg === null && !(r.action === 'withhold' || r.withheld === true)).length;
   return (
     <section aria-labelledby="ration-title" className="flex flex-col gap-3" data-testid="ration-sheet">
       <h2 id="ration-title" className="flex items-center gap-2 text-2xl font-bold">
         <Icon name="scoop" /> {t('tasks.rations.title')}
       </h2>
       {rows.length === 0 ? <p className="text-lg text-muted">{t('tasks.rations.none')}</p> : null}
-      <ul className="flex flex-col gap-2">
+      {undecided ? (
+        <p
+          className="flex items-start gap-2 rounded-xl border-2 border-ember-600 bg-ember-50 px-4 py-3 text-base font-bold"
+          data-testid="rations-waiting"
+        >
+          <span aria-hidden="true">◔</span>
+          {undecided === rows.length ? t('tasks.rations.allWaiting') : t('tasks.rations.someWaiting', { count: undecided })}
+        </p>
+      ) : null}
+      <ul className="gw-card flex flex-col divide-y-2 divide-line">
         {rows.map((r) => {
           const withhold = r.action === 'withhold' || r.withheld === true;
           const decided = r.toFeedKg !== null;
           return (
-            <li key={r.unit.id} className="gw-card flex flex-col gap-1 px-4 py-3" data-ration-unit={r.unit.code}>
-              <div className="flex flex-wrap items-baseline justify-between gap-x-3">
-                <p className="text-lg font-bold">
-                  {r.unit.code} <span className="font-normal text-muted">· {r.unit.name}</span>
+            <li key={r.unit.id} className="flex flex-col gap-1 px-4 py-3" data-ration-unit={r.unit.code}>
+              <div className="flex items-center justify-between gap-3">
+                <p className="min-w-0 leading-snug">
+                  <span className="text-lg font-bold">{r.unit.code}</span> <span className="text-muted">{r.unit.name}</span>
                 </p>
-                <p className="text-2xl font-bold tabular-nums">
+                <p className="shrink-0 text-right text-2xl font-bold tabular-nums">
                   {withhold ? (
-                    <span className="inline-flex items-center gap-1.5 text-act">
+                    <span className="inline-flex items-center gap-1.5 text-xl text-act">
                       <span aria-hidden="true">◆</span>
                       {t('tasks.rations.withhold')}
                     </span>
                   ) : decided ? (
                     t('tasks.rations.kg', { kg: kg(r.toFeedKg ?? 0, lang) })
                   ) : (
-                    <span className="text-base font-bold text-muted">{t('tasks.rations.waiting')}</span>
+                    <span className="block text-base font-bold text-muted">
+                      {r.plannedKg !== null ? t('tasks.rations.planned', { kg: kg(r.plannedKg, lang) }) : '—'}
+                    </span>
                   )}
                 </p>
               </div>

@@ -123,7 +123,9 @@ function WithdrawalLine({ tr, timeZone }: { tr: Treatment; timeZone: string }) {
         </span>
         {w.endsAt
           ? t(w.estimate === 'projected' ? 'treatments.withdrawal.projected' : 'treatments.withdrawal.until', { when: day(w.endsAt) })
-          : t('treatments.withdrawal.unknownEnd')}
+          : w.basis === 'degree_days' && tr.withdrawalDegreeDays !== null
+            ? t('treatments.withdrawal.afterDegreeDays', { of: tr.withdrawalDegreeDays })
+            : t('treatments.withdrawal.unknownEnd')}
         {w.basis === 'degree_days' && w.degreeDaysSoFar !== null && tr.withdrawalDegreeDays !== null ? (
           <span className="font-normal">
             {t('treatments.withdrawal.degreeDays', {
@@ -268,7 +270,11 @@ export function TreatmentsScreen({ farmId, timeZone }: TreatmentsScreenProps) {
             {inWithdrawal.map((x) => (
               <li key={x.id}>
                 <strong>{unitLabel(x.unitId)}</strong> — {t(`treatments.product.${x.product}`)}
-                {x.withdrawal.endsAt ? `: ${t('treatments.withdrawal.until', { when: when(x.withdrawal.endsAt) })}` : ''}
+                {x.withdrawal.endsAt
+                  ? `: ${t(x.withdrawal.estimate === 'projected' ? 'treatments.withdrawal.projected' : 'treatments.withdrawal.until', { when: when(x.withdrawal.endsAt) })}`
+                  : x.withdrawalDegreeDays !== null
+                    ? `: ${t('treatments.withdrawal.afterDegreeDays', { of: x.withdrawalDegreeDays })}`
+                    : ''}
               </li>
             ))}
           </ul>
