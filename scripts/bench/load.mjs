@@ -157,7 +157,8 @@ async function publishRole() {
       const add = ((t - last) / 1000) * perClient;
       last = t;
       for (const st of clients) {
-        st.tokens = Math.min(st.tokens + add, Math.max(2, perClient * 0.05));
+        // Up to a quarter second of credit, so a late timer tick does not lose rate.
+        st.tokens = Math.min(st.tokens + add, Math.max(4, perClient * 0.25));
         fill(st);
       }
     }, 2);

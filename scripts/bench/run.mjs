@@ -23,6 +23,9 @@
 //   --batch-max / --flush-ms   INGEST_BATCH_MAX / INGEST_FLUSH_MS for the server
 //   --write / --no-write    write docs/benchmarks.md (default: yes, except with --quick)
 //   --sync-off / --no-sync-off   one more max-rate run with synchronous_commit=off (an option, never the default)
+//   --suspect-index         decisions: experiment with a partial index of suspect readings (see docs)
+//   --attached              decisions: keep the simulated probes on the demo units (their evaluations run too)
+//   --merge <results.json>  take the sections this run skips (--only) from an earlier run's raw results
 //   --keep                  leave the stack's folder in /var/tmp for inspection
 import { randomUUID } from 'node:crypto';
 import { chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -66,6 +69,8 @@ const O = {
   flushMs: flags['flush-ms'] ?? process.env.BENCH_FLUSH_MS,
   write: flags.write ?? (process.env.BENCH_WRITE ? process.env.BENCH_WRITE === '1' : !quick),
   keep: Boolean(flags.keep),
+  suspectIndex: Boolean(flags['suspect-index'] ?? process.env.BENCH_SUSPECT_INDEX === '1'),
+  attached: Boolean(flags.attached ?? process.env.BENCH_ATTACHED === '1'),
   syncOff: flags['sync-off'] ?? (process.env.BENCH_SYNC_OFF ? process.env.BENCH_SYNC_OFF === '1' : !quick),
 };
 
@@ -172,6 +177,16 @@ async function main() {
   results.wallS = Math.round((performance.now() - started) / 1000);
   await db.end();
 
+  if (flags.merge) {
+    // Sections this run skipped (--only) come from an earlier run's raw results, named in the doc.
+    const prev = JSON.parse(readFileSync(String(flags.merge), 'utf8'));
+    for (const k of ['ingest', 'decisions', 'growth', 'client']) {
+      if (results[k] === undefined && prev[k] !== undefined) {
+        results[k] = prev[k];
+        (results.merged ??= []).push({ section: k, from: prev.startedAt, mode: prev.mode, load: prev.load, calibration: prev.calibration });
+      }
+    }
+  }
   const resultFile = `/var/tmp/gillwise-bench-results-${results.startedAt.replace(/[:.]/g, '-')}.json`;
   writeFileSync(resultFile, JSON.stringify(results, null, 2));
   process.stdout.write(`\n${renderTable(results)}\n`);
@@ -323,7 +338,7 @@ async function ingestBench(ctx) {
   say(`ingest: throttled to 0.8 × max = ${target.toLocaleString('en')} messages/s, latency publish → PUBACK and → row visible`);
   const thr = await load(
     ctx,
-    { port: ctx.mqttPort, probes, auth: true, rate: target, poll: { pgUrl: ctx.dbUrl, sampleEvery: 25, intervalMs: 5 } },
+    { port: ctx.mqttPort, probes, auth: true, rate: target, poll: { pgUrl: ctx.dbUrl, sampleEvery: 25, intervalMs: 20 } },
     'ingest-80',
   );
   const v2 = await verify(ctx, thr);
@@ -332,7 +347,7 @@ async function ingestBench(ctx) {
     // The machine may not sustain 0.8 × a max measured a minute earlier (other load changes): also 0.5 ×.
     const half = Math.round((0.5 * out.max.readingsPerSec) / 4);
     say(`ingest: throttled to 0.5 × max = ${half.toLocaleString('en')} messages/s`);
-    const h = await load(ctx, { port: ctx.mqttPort, probes, auth: true, rate: half, poll: { pgUrl: ctx.dbUrl, sampleEvery: 25, intervalMs: 5 } }, 'ingest-50');
+    const h = await load(ctx, { port: ctx.mqttPort, probes, auth: true, rate: half, poll: { pgUrl: ctx.dbUrl, sampleEvery: 25, intervalMs: 20 } }, 'ingest-50');
     const vh = await verify(ctx, h);
     out.half = { ...strip(h), verify: vh, readingsPerSec: vh.stored / h.elapsedS, targetMsgsPerSec: half, sustained: h.ackedPerSec >= 0.95 * half };
     say(`  ${Math.round(out.half.readingsPerSec).toLocaleString('en')} readings/s; PUBACK p50 ${h.ackLatencyMs.p50} p99 ${h.ackLatencyMs.p99} ms; visible p50 ${h.visibilityMs.p50} p99 ${h.visibilityMs.p99} ms`);
@@ -469,6 +484,21 @@ async function decisionBench(ctx) {
   const rate = maxRate ? Math.round((0.5 * maxRate) / 4) : 5000;
   say(`decisions: worker on; ingest at 0.5 × max = ${rate.toLocaleString('en')} messages/s; ${O.tests} kit results posted → result visible`);
   // node --import tsx (not the tsx wrapper), so that the pid whose CPU time is read is the worker itself.
+  // The simulated probes publish hundreds of times a minute each, so every evaluation the ingest queues
+  // for their units reads thousands of times the history a real probe leaves: with them on the units,
+  // the worker's evaluations would measure that artefact (see docs/benchmarks.md). Detached from units,
+  // they load ingest exactly as before and queue no evaluations; kit results still queue their own.
+  if (!O.attached) {
+    await ctx.db.query(`UPDATE probes SET unit_id = NULL WHERE probe_key LIKE 'bench-%'`);
+    await restartServer(ctx);
+  }
+  if (O.suspectIndex) {
+    // Experiment (not a migration): probe health counts suspect readings of the last day per probe and
+    // quantity; a partial index holds only those, so the count no longer visits every reading of the day.
+    say(`  experiment: CREATE INDEX … ON readings (probe_id, quantity, at) WHERE quality = 'suspect'`);
+    await ctx.db.query(`CREATE INDEX IF NOT EXISTS bench_readings_suspect ON readings (probe_id, quantity, at) WHERE quality = 'suspect'`);
+    await ctx.db.query('ANALYZE readings');
+  }
   const worker = startChild('worker', process.execPath, ['--import', 'tsx', 'worker/index.ts'], { env: ctx.serverEnv, logFile: path.join(ctx.dir, 'worker.log') });
   const cookie = await signIn(ctx, ctx.fx.hand, ctx.fx.password);
   const headers = { cookie, 'content-type': 'application/json' };
@@ -526,7 +556,16 @@ async function decisionBench(ctx) {
   const failures = [];
   const one = async (i) => {
     const unitId = ctx.fx.unitIds[i % ctx.fx.unitIds.length];
-    const body = { clientId: randomUUID(), analyte: 'total_ammonia', method: 'salicylate', basis: 'tan-n', value: 0.4 + (i % 10) / 10, sampledAt: new Date().toISOString() };
+    const body = {
+      clientId: randomUUID(),
+      analyte: 'total_ammonia',
+      method: 'salicylate',
+      basis: 'tan-n',
+      value: 0.4 + (i % 10) / 10,
+      sampledAt: new Date().toISOString(),
+      handheldPh: 7.9,
+      handheldTemperatureC: 26,
+    };
     const t0 = performance.now();
     const wall0 = Date.now();
     const res = await fetch(`${ctx.base}/api/farms/${ctx.fx.farmId}/units/${unitId}/tests`, { method: 'POST', headers, body: JSON.stringify(body) });
@@ -573,7 +612,11 @@ async function decisionBench(ctx) {
     machineTotalS: Math.round((m1.total - m0.total) * 10) / 10,
   };
   await stopChild(worker);
+  const statuses = (await ctx.db.query(`SELECT status, count(*)::int AS n FROM free_ammonia_results GROUP BY status`)).rows;
   const res = {
+    probesOnUnits: O.attached,
+    suspectIndex: O.suspectIndex,
+    resultStatuses: statuses,
     ingestTargetMsgsPerSec: rate,
     ingestReadingsPerSec: (loadRes.acked * 4) / loadRes.elapsedS,
     ingestAckLatencyMs: loadRes.ackLatencyMs,
