@@ -12,7 +12,7 @@ export default tseslint.config(
   {
     files: ['**/*.ts', '**/*.tsx'],
     languageOptions: {
-      parserOptions: { project: ['./tsconfig.json', './tsconfig.app.json'], tsconfigRootDir: import.meta.dirname },
+      parserOptions: { project: ['./tsconfig.json', './tsconfig.app.json', './tsconfig.e2e.json'], tsconfigRootDir: import.meta.dirname },
     },
     plugins: { 'import-x': importX },
     rules: {

@@ -22,6 +22,7 @@ if (process.env.GILLWISE_SKIP_STATIC !== '1') {
   for (const [label, cmd, args] of [
     ['typecheck (server, worker, shared, simulator, tests)', bin('tsc'), ['-p', 'tsconfig.json']],
     ['typecheck (client)', bin('tsc'), ['-p', 'tsconfig.app.json']],
+    ['typecheck (browser tests)', bin('tsc'), ['-p', 'tsconfig.e2e.json']],
     ['lint', bin('eslint'), ['.']],
   ]) {
     console.log(`[test] ${label}`);

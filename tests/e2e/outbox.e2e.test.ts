@@ -62,7 +62,7 @@ describe('invitations and the outbox in a real browser', () => {
           await page.getByTestId('outbox').waitFor();
           return (await message.count()) > 0 ? await message.textContent() : '';
         },
-        { timeout: 20_000, intervals: [500, 1000] },
+        { timeout: 20_000, interval: 750 },
       )
       .toContain(en.outbox.delivery.received);
     expect(await message.getByTestId('outbox-subject').textContent()).toBe('Gillwise: le invitaron a Harrow Bend Fish Farm');
