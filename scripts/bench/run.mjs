@@ -13,11 +13,11 @@
 //   --probes 200            simulated probes (each its own credential)
 //   --duration 30           seconds of each ingest run (max, throttled, mosquitto)
 //   --window 64             unacknowledged QoS 1 publishes per probe connection
-//   --copy-rows 1500000     rows of the raw COPY ceiling
+//   --copy-rows 1000000     rows of the raw COPY ceiling
 //   --tests 60              kit results posted in the decision benchmark
 //   --days 7,30,90          growth data sizes (days of 1-minute readings)
 //   --units 20              growth units (one probe each, 3–4 quantities)
-//   --requests 120          autocannon requests per endpoint and range
+//   --requests 80           autocannon requests per endpoint and range
 //   --connections 4         autocannon connections
 //   --profile               write a CPU profile of the server during the max-rate ingest run
 //   --batch-max / --flush-ms   INGEST_BATCH_MAX / INGEST_FLUSH_MS for the server
@@ -57,11 +57,11 @@ const O = {
   probes: opt('probes', 200, 200),
   duration: opt('duration', 30, 8),
   window: opt('window', 64, 64),
-  copyRows: opt('copy-rows', 1_500_000, 300_000),
+  copyRows: opt('copy-rows', 1_000_000, 300_000),
   tests: opt('tests', 60, 15),
   days: String(opt('days', '7,30,90', '1,7')).split(',').map(Number),
   units: opt('units', 20, 20),
-  requests: opt('requests', 120, 40),
+  requests: opt('requests', 80, 40),
   connections: opt('connections', 4, 4),
   only: new Set(String(opt('only', 'ingest,decisions,growth,client', 'ingest,decisions,growth,client')).split(',')),
   profile: Boolean(flags.profile ?? process.env.BENCH_PROFILE === '1'),

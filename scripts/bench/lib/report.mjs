@@ -69,7 +69,8 @@ export function renderDoc(r) {
   const v = r.versions;
   const out = [];
   out.push(BEGIN, '');
-  out.push(`Run **${r.startedAt.slice(0, 10)}** (${r.mode} mode, ${Math.round(r.wallS / 60)} min wall time) on ${m.cores} cores (${m.cpu}), ${m.memoryGiB} GiB, ${m.os}; /var/tmp on ${m.varTmp ?? '?'}.`);
+  const only = r.options?.only?.length && r.options.only.length < 4 ? `, only ${r.options.only.join(' and ')}` : '';
+  out.push(`Run **${r.startedAt.slice(0, 10)}** (${r.mode} mode${only}, ${Math.round(r.wallS / 60)} min wall time) on ${m.cores} cores (${m.cpu}), ${m.memoryGiB} GiB, ${m.os}; /var/tmp on ${m.varTmp ?? '?'}.`);
   out.push(`Versions: Node ${v.node}, PostgreSQL ${v.postgres}, Redis ${v.redis}, ${v.mosquitto ?? 'mosquitto –'}, aedes ${v.aedes}, pg ${v.pg}, BullMQ ${v.bullmq}, Express ${v.express}, zod ${v.zod}, Vite ${v.vite}, autocannon ${v.autocannon}; commit ${v.commit}${v.workingTreeChanged ? ' plus uncommitted changes in the working tree' : ''}.`);
   out.push(`Machine load during the run (load average 1/5/15 min): ${(r.load ?? []).map((l) => `${l.at} ${l.loadavg.join('/')}`).join('; ')}; CPU yardstick count(generate_series(1, 5e6)) = ${r.calibration?.generateSeriesMs ?? '–'} ms.`);
   for (const m of r.merged ?? []) out.push(`The ${m.section} section comes from the ${m.mode} run of ${m.from} (load average ${m.load?.map((l) => l.loadavg[0]).join(' → ')}, yardstick ${m.calibration?.generateSeriesMs} ms).`);
