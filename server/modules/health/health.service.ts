@@ -7,6 +7,15 @@ export type HealthReport = { status: 'ok' | 'degraded'; checks: Record<'database
 export const WORKER_HEARTBEAT_TTL_SECONDS = 30;
 export const workerHeartbeatKey = (prefix: string, workerId: string) => `${prefix}:heartbeat:worker:${workerId}`;
 
+const CHECK_TIMEOUT_MS = 2000;
+function withTimeout(check: Promise<CheckResult>): Promise<CheckResult> {
+  let timer: NodeJS.Timeout | undefined;
+  const late = new Promise<CheckResult>((resolve) => {
+    timer = setTimeout(() => resolve({ status: 'down', detail: `no answer within ${CHECK_TIMEOUT_MS} ms` }), CHECK_TIMEOUT_MS);
+  });
+  return Promise.race([check, late]).finally(() => clearTimeout(timer));
+}
+
 export class HealthService {
   constructor(
     private readonly ds: DataSource,
@@ -16,7 +25,8 @@ export class HealthService {
   ) {}
 
   async report(): Promise<HealthReport> {
-    const [database, redis, worker] = await Promise.all([this.database(), this.redisCheck(), this.worker()]);
+    // Each check answers within 2 s: a store that hangs is reported down, not a health page that hangs.
+    const [database, redis, worker] = await Promise.all([withTimeout(this.database()), withTimeout(this.redisCheck()), withTimeout(this.worker())]);
     const checks = { database, redis, broker: this.brokerStatus(), worker };
     const status = Object.values(checks).every((c) => c.status === 'ok') ? 'ok' : 'degraded';
     return { status, checks };

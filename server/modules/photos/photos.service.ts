@@ -45,6 +45,12 @@ export class PhotosService {
       (await this.ds.getRepository(Observation).existsBy({ farmId, photoPath: name })) || (await this.ds.getRepository(WaterTest).existsBy({ farmId, photoPath: name }));
     if (!owned) throw notFound('Photo');
     const ext = name.split('.').pop() as keyof typeof TYPES;
-    return { bytes: await readFile(join(this.dir, name)), contentType: TYPES[ext] };
+    try {
+      return { bytes: await readFile(join(this.dir, name)), contentType: TYPES[ext] };
+    } catch (err) {
+      // The row survives a lost file (a restored backup without the data folder): say it is gone.
+      if ((err as NodeJS.ErrnoException).code === 'ENOENT') throw notFound('Photo');
+      throw err;
+    }
   }
 }
