@@ -12,12 +12,13 @@ import { Spinner } from '@/components/ui/spinner';
 import { statusStyle } from '@/components/ui/status-badge';
 import { taskQueries } from '../api/tasks';
 
-function dayTitle(day: string, timeZone: string, locale: string): string {
+function dayTitle(day: string, locale: string): string {
   try {
-    // Noon of the farm day, so the weekday is right in any time zone.
-    return new Intl.DateTimeFormat(locale, { timeZone, weekday: 'long', day: 'numeric', month: 'long' }).format(
+    // The farm day is a calendar date: format it as that date, whatever the viewer's time zone.
+    const text = new Intl.DateTimeFormat(locale, { timeZone: 'UTC', weekday: 'long', day: 'numeric', month: 'long' }).format(
       new Date(`${day}T12:00:00Z`),
     );
+    return text.charAt(0).toLocaleUpperCase(locale) + text.slice(1);
   } catch {
     return day;
   }
@@ -76,7 +77,7 @@ function TaskCard({ task, href, timeZone }: { task: Task; href: string; timeZone
       <span className="min-w-0 flex-1">
         <span
           className={cx(
-            'inline-flex items-center gap-1.5 rounded-full border-2 px-2.5 py-0.5 text-sm font-bold uppercase leading-none tracking-wide',
+            'inline-flex items-center gap-1.5 rounded-full border-2 px-2.5 py-0.5 text-sm font-bold leading-tight',
             style.className,
           )}
         >
@@ -193,7 +194,7 @@ export function TaskBoard({ farmId, timeZone, testHref, nightRoundHref, outbox }
       <title>{`${t('nav.tasks')} · Gillwise`}</title>
       <header className="flex flex-col gap-1">
         <h1 className="text-3xl font-bold leading-tight">{t('tasks.title')}</h1>
-        {tests.data ? <p className="text-lg font-bold capitalize text-abyss-700">{dayTitle(tests.data.day, timeZone, lang)}</p> : null}
+        {tests.data ? <p className="text-lg font-bold text-abyss-700">{dayTitle(tests.data.day, lang)}</p> : null}
       </header>
 
       {outbox}
