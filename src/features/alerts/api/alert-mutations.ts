@@ -14,22 +14,31 @@ function postAction(farmId: string, alertId: string, action: Action, body: Recor
  * One mutation hook per action. On success the alert lists refresh at once; other screens that show
  * alerts (map, unit) refresh through the live 'alert' event the server sends for the change.
  */
-function useAlertAction<V>(farmId: string, action: Action, toBody: (v: V) => Record<string, unknown>) {
+function useAlertAction<V>(farmId: string, action: Action, toBody: (v: V) => Record<string, unknown>, onDone?: (alert: AlertDto) => void) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ alertId, ...v }: { alertId: string } & V) => postAction(farmId, alertId, action, toBody(v as V)),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: alertKeys.all(farmId) }),
+    // Hook-level callbacks run even when the card that started the action is gone (the refetched list may drop it).
+    onSuccess: (alert) => {
+      onDone?.(alert);
+      return queryClient.invalidateQueries({ queryKey: alertKeys.all(farmId) });
+    },
   });
 }
 
-export function useAcknowledgeAlert(farmId: string) {
-  return useAlertAction<{ note?: string }>(farmId, 'acknowledge', ({ note }) => (note ? { note } : {}));
+export function useAcknowledgeAlert(farmId: string, onDone?: (alert: AlertDto) => void) {
+  return useAlertAction<{ note?: string }>(farmId, 'acknowledge', ({ note }) => (note ? { note } : {}), onDone);
 }
 
-export function useAssignAlert(farmId: string) {
-  return useAlertAction<{ userId: string; note?: string }>(farmId, 'assign', ({ userId, note }) => (note ? { userId, note } : { userId }));
+export function useAssignAlert(farmId: string, onDone?: (alert: AlertDto) => void) {
+  return useAlertAction<{ userId: string; note?: string }>(
+    farmId,
+    'assign',
+    ({ userId, note }) => (note ? { userId, note } : { userId }),
+    onDone,
+  );
 }
 
-export function useResolveAlert(farmId: string) {
-  return useAlertAction<{ note: string }>(farmId, 'resolve', ({ note }) => ({ note }));
+export function useResolveAlert(farmId: string, onDone?: (alert: AlertDto) => void) {
+  return useAlertAction<{ note: string }>(farmId, 'resolve', ({ note }) => ({ note }), onDone);
 }

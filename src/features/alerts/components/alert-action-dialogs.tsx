@@ -17,13 +17,15 @@ interface DialogBase {
   alert: AlertDto;
   open: boolean;
   onClose: () => void;
+  /** After the action went through (the dialog closes itself). */
+  onDone?: () => void;
   title: string;
 }
 
 /** Resolve with a note: what was done (the note is required, as the API asks). */
-export function ResolveDialog({ farmId, alert, open, onClose, title }: DialogBase) {
+export function ResolveDialog({ farmId, alert, open, onClose, onDone, title }: DialogBase) {
   const { t } = useTranslation();
-  const resolve = useResolveAlert(farmId);
+  const resolve = useResolveAlert(farmId, onDone);
   const [note, setNote] = useState('');
   const [fieldError, setFieldError] = useState<string | undefined>();
   const error = useActionError(resolve.error);
@@ -83,9 +85,17 @@ export function ResolveDialog({ farmId, alert, open, onClose, title }: DialogBas
 }
 
 /** Give the alert to a person of the farm (the caller first). */
-export function AssignDialog({ farmId, alert, open, onClose, title, me }: DialogBase & { me: { id: string; name: string } | null }) {
+export function AssignDialog({
+  farmId,
+  alert,
+  open,
+  onClose,
+  onDone,
+  title,
+  me,
+}: DialogBase & { me: { id: string; name: string } | null }) {
   const { t } = useTranslation();
-  const assign = useAssignAlert(farmId);
+  const assign = useAssignAlert(farmId, onDone);
   const people = useQuery({ ...alertQueries.people(farmId), enabled: open });
   const [userId, setUserId] = useState(alert.assignedTo?.id ?? '');
   const [note, setNote] = useState('');

@@ -25,6 +25,8 @@ export interface AlertCardProps {
   me: { id: string; name: string } | null;
   /** Shorter card (the map's sheet and the unit page): no source line. */
   compact?: boolean;
+  /** Told after an action went through (the list may move the alert to another tab). */
+  onDone?: (action: 'acknowledged' | 'assigned' | 'resolved', title: string) => void;
 }
 
 export function alertTitle(alert: AlertDto, t: (k: string, o?: Record<string, unknown>) => string): string {
@@ -35,15 +37,15 @@ export function alertTitle(alert: AlertDto, t: (k: string, o?: Record<string, un
 }
 
 /** One alert: level, what was measured against which limit, who has it, and the actions the caller may take. */
-export function AlertCard({ farmId, alert, timeZone, can, me, compact = false }: AlertCardProps) {
+export function AlertCard({ farmId, alert, timeZone, can, me, compact = false, onDone }: AlertCardProps) {
   const { t, i18n } = useTranslation();
   const locale = i18n.language;
-  const ack = useAcknowledgeAlert(farmId);
+  const title = alertTitle(alert, t);
+  const ack = useAcknowledgeAlert(farmId, () => onDone?.('acknowledged', title));
   const ackError = useActionError(ack.error);
   const [dialog, setDialog] = useState<{ kind: 'assign' | 'resolve' | null; n: number }>({ kind: null, n: 0 });
   const open = (kind: 'assign' | 'resolve') => setDialog((d) => ({ kind, n: d.n + 1 }));
   const close = () => setDialog((d) => ({ ...d, kind: null }));
-  const title = alertTitle(alert, t);
   const measured = measuredLine(alert, t, locale);
   const time = (iso: string) => formatFarmTime(iso, timeZone, locale);
   const resolved = alert.state === 'resolved';
@@ -150,6 +152,7 @@ export function AlertCard({ farmId, alert, timeZone, can, me, compact = false }:
           alert={alert}
           open={dialog.kind === 'assign'}
           onClose={close}
+          onDone={() => onDone?.('assigned', title)}
           title={title}
           me={me}
         />
@@ -161,6 +164,7 @@ export function AlertCard({ farmId, alert, timeZone, can, me, compact = false }:
           alert={alert}
           open={dialog.kind === 'resolve'}
           onClose={close}
+          onDone={() => onDone?.('resolved', title)}
           title={title}
         />
       ) : null}

@@ -1,3 +1,4 @@
+import type { AlertDto } from '@shared/schemas/alerts.schema';
 import { useInfiniteQuery } from '@tanstack/react-query';
 import { useTranslation } from 'react-i18next';
 import { Button } from '@/components/ui/button';
@@ -7,7 +8,7 @@ import { Spinner } from '@/components/ui/spinner';
 import { alertQueries } from '../api/alert-queries';
 import type { AlertListFilters } from '../api/keys';
 import { useAlertPermissions } from '../hooks/use-alert-permissions';
-import { AlertCard } from './alert-card';
+import { AlertCard, type AlertCardProps } from './alert-card';
 
 export interface AlertListProps {
   farmId: string;
@@ -17,9 +18,10 @@ export interface AlertListProps {
   /** What to say when nothing matches. */
   emptyTitle: string;
   emptyBody?: string;
+  onDone?: AlertCardProps['onDone'];
 }
 
-export function AlertList({ farmId, timeZone, filters, compact, emptyTitle, emptyBody }: AlertListProps) {
+export function AlertList({ farmId, timeZone, filters, compact, emptyTitle, emptyBody, onDone }: AlertListProps) {
   const { t } = useTranslation();
   const { can, me } = useAlertPermissions();
   const query = useInfiniteQuery(alertQueries.list(farmId, filters));
@@ -34,7 +36,13 @@ export function AlertList({ farmId, timeZone, filters, compact, emptyTitle, empt
       </Callout>
     );
   }
-  const alerts = query.data.pages.flatMap((p) => p.alerts);
+  // Act before watch, open before acknowledged, newest first (the resolved list stays newest first).
+  const rank = (a: AlertDto) => (filters.state === 'resolved' ? 0 : (a.level === 'act' ? 0 : 2) + (a.state === 'open' ? 0 : 1));
+  const alerts = query.data.pages
+    .flatMap((p) => p.alerts)
+    .map((a, i) => ({ a, i }))
+    .sort((x, y) => rank(x.a) - rank(y.a) || x.i - y.i)
+    .map(({ a }) => a);
   if (alerts.length === 0) {
     return compact ? (
       <p className="text-base text-muted" data-testid="alerts-empty">
@@ -56,7 +64,7 @@ export function AlertList({ farmId, timeZone, filters, compact, emptyTitle, empt
       <ul className="flex flex-col gap-3" data-testid="alert-list">
         {alerts.map((a) => (
           <li key={a.id}>
-            <AlertCard farmId={farmId} alert={a} timeZone={timeZone} can={can} me={me} compact={compact} />
+            <AlertCard farmId={farmId} alert={a} timeZone={timeZone} can={can} me={me} compact={compact} onDone={onDone} />
           </li>
         ))}
       </ul>

@@ -1,5 +1,6 @@
 import { alertKinds } from '@shared/schemas/alerts.schema';
 import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useTranslation } from 'react-i18next';
 import { Callout } from '@/components/ui/callout';
 import { cx } from '@/components/ui/cx';
@@ -22,11 +23,21 @@ export interface AlertsScreenProps {
 
 const tabGlyph: Record<AlertTab, string> = { open: '!', acknowledged: '✓', resolved: '✓✓' };
 
+/** Where an alert goes after each action (assigning leaves it where it is). */
+const doneTab: Record<'acknowledged' | 'assigned' | 'resolved', AlertTab | null> = {
+  acknowledged: 'acknowledged',
+  assigned: null,
+  resolved: 'resolved',
+};
+
 /** Alerts of the farm by state, filtered by unit and kind, with the safety caution. */
 export function AlertsScreen({ farmId, timeZone, tab, unitId, kind, onChange }: AlertsScreenProps) {
   const { t } = useTranslation();
   const units = useQuery(unitOptionsQuery(farmId));
   const filters: AlertListFilters = { state: tab, ...(unitId ? { unitId } : {}), ...(kind ? { kind } : {}) };
+  // What the last action did, said where the alert went (an acknowledged alert leaves the Open tab).
+  const [done, setDone] = useState<{ action: 'acknowledged' | 'assigned' | 'resolved'; title: string } | null>(null);
+  const target = done ? doneTab[done.action] : null;
 
   return (
     <div className="flex flex-col gap-5">
@@ -47,7 +58,10 @@ export function AlertsScreen({ farmId, timeZone, tab, unitId, kind, onChange }: 
               key={s}
               type="button"
               aria-pressed={tab === s}
-              onClick={() => onChange({ tab: s, unitId, kind })}
+              onClick={() => {
+                setDone(null);
+                onChange({ tab: s, unitId, kind });
+              }}
               className={cx(
                 'inline-flex min-h-12 items-center justify-center gap-1.5 rounded-xl border-2 px-1 text-[0.94rem] font-bold sm:px-4 sm:text-lg',
                 tab === s ? 'border-abyss-700 bg-abyss-700 text-white' : 'border-abyss-700 bg-card text-abyss-900 hover:bg-abyss-50',
@@ -83,6 +97,26 @@ export function AlertsScreen({ farmId, timeZone, tab, unitId, kind, onChange }: 
         </div>
       </div>
 
+      <div role="status" aria-live="polite">
+        {done ? (
+          <Callout tone="success">
+            {t(`alerts.done.${done.action}`, { title: done.title })}{' '}
+            {target && target !== tab ? (
+              <button
+                type="button"
+                className="gw-link"
+                onClick={() => {
+                  onChange({ tab: target, unitId, kind });
+                  setDone(null);
+                }}
+              >
+                {t(`alerts.done.show.${done.action}`)}
+              </button>
+            ) : null}
+          </Callout>
+        ) : null}
+      </div>
+
       <section aria-label={t(`alerts.tab.${tab}`)}>
         <AlertList
           farmId={farmId}
@@ -90,6 +124,7 @@ export function AlertsScreen({ farmId, timeZone, tab, unitId, kind, onChange }: 
           filters={filters}
           emptyTitle={t(`alerts.empty.${tab}`)}
           emptyBody={unitId || kind ? t('alerts.empty.filtered') : undefined}
+          onDone={(action, title) => setDone({ action, title })}
         />
       </section>
     </div>

@@ -114,24 +114,29 @@ export function MorningReportView({ farmId, day, onDay, unitHref, alertsHref }: 
               : t('reports.stored')
             : t('reports.preview')}
         </p>
-        <ul className="mt-3 grid grid-cols-3 gap-2 sm:gap-3">
-          <li className="rounded-xl border-2 border-line bg-paper px-3 py-2">
-            <span className="block text-sm font-bold leading-tight text-muted">{t('reports.kpi.alarms')}</span>
-            <span className="block text-2xl font-bold tabular-nums">{c.alarms.length}</span>
-          </li>
-          <li className={cx('rounded-xl border-2 px-3 py-2', unacked ? 'border-act bg-act-soft text-act-ink' : 'border-line bg-paper')}>
-            <span className="block text-sm font-bold leading-tight">{t('reports.kpi.unacked')}</span>
-            <span className="block text-2xl font-bold tabular-nums">
-              {unacked ? <span aria-hidden="true">◆ </span> : null}
-              {unacked}
-            </span>
-          </li>
-          <li className="rounded-xl border-2 border-line bg-paper px-3 py-2">
-            <span className="block text-sm font-bold leading-tight text-muted">{t('reports.kpi.missed')}</span>
-            <span className="block text-2xl font-bold tabular-nums">
-              {c.missedChecks.testsOverdue.length + c.missedChecks.silentProbes.length}
-            </span>
-          </li>
+        <ul className="mt-3 grid gap-2 sm:grid-cols-3 sm:gap-3" data-testid="report-kpis">
+          {[
+            { key: 'alarms', value: c.alarms.length, alarm: false },
+            { key: 'unacked', value: unacked, alarm: unacked > 0 },
+            { key: 'missed', value: c.missedChecks.testsOverdue.length + c.missedChecks.silentProbes.length, alarm: false },
+          ].map((k) => (
+            <li
+              key={k.key}
+              className={cx(
+                // Phones: the number then its words on one line; wider screens: a tile with the words above.
+                'flex items-baseline gap-2 rounded-xl border-2 px-3 py-1.5 sm:flex-col-reverse sm:items-start sm:gap-0 sm:py-2',
+                k.alarm ? 'border-act bg-act-soft text-act-ink' : 'border-line bg-paper',
+              )}
+            >
+              <span className="text-2xl font-bold tabular-nums">
+                {k.alarm ? <span aria-hidden="true">◆ </span> : null}
+                {k.value}
+              </span>
+              <span className={cx('text-base font-bold leading-tight sm:text-sm', !k.alarm && 'text-muted')}>
+                {t(`reports.kpi.${k.key}`)}
+              </span>
+            </li>
+          ))}
         </ul>
       </section>
 
