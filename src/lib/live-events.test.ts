@@ -8,9 +8,17 @@ class FakeEventSource {
   onerror: (() => void) | null = null;
   onmessage: ((m: MessageEvent) => void) | null = null;
   closed = false;
+  readonly named = new Map<string, Array<(m: MessageEvent) => void>>();
   constructor(readonly url: string) {}
+  addEventListener(type: string, listener: (m: MessageEvent) => void) {
+    this.named.set(type, [...(this.named.get(type) ?? []), listener]);
+  }
   emit(data: unknown) {
     this.onmessage?.({ data: JSON.stringify(data) } as MessageEvent);
+  }
+  /** A named server-sent event (`event: <type>`), as the Gillwise server sends them. */
+  emitNamed(type: string, data: unknown) {
+    for (const l of this.named.get(type) ?? []) l({ data: JSON.stringify(data) } as MessageEvent);
   }
   close() {
     this.closed = true;
@@ -45,6 +53,18 @@ describe('live events', () => {
     offB();
     close();
     expect(source?.closed).toBe(true);
+  });
+
+  it("handles the server's named events (event: status)", () => {
+    const off = registerLiveEvent('status', (e) => [farmKey(e.farmId, 'status')]);
+    const queryClient = new QueryClient();
+    const spy = vi.spyOn(queryClient, 'invalidateQueries');
+    let source: FakeEventSource | undefined;
+    const close = connectLiveEvents({ farmId: 'f1', queryClient, createEventSource: (url) => (source = new FakeEventSource(url)) as unknown as EventSource });
+    source?.emitNamed('status', { type: 'status', farmId: 'f1', unitId: null, at: new Date().toISOString() });
+    expect(spy.mock.calls.map((c) => c[0]?.queryKey)).toEqual([['farm', 'f1', 'status']]);
+    off();
+    close();
   });
 
   it('refreshes everything of the farm after the stream reconnects', () => {

@@ -1,3 +1,4 @@
+import { liveEventTypes } from '@shared/schemas/live.schema';
 import type { QueryClient, QueryKey } from '@tanstack/react-query';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
@@ -82,12 +83,15 @@ export function connectLiveEvents({ farmId, queryClient, createEventSource, onEv
   source.onerror = () => {
     hadError = true;
   };
-  source.onmessage = (message: MessageEvent) => {
+  const handle = (message: MessageEvent) => {
     const event = parseLiveEvent(message.data);
     if (!event || event.farmId !== farmId) return;
     for (const queryKey of keysForEvent(event)) void queryClient.invalidateQueries({ queryKey });
     onEvent?.(event);
   };
+  // The server names every event (`event: status`, `event: alert`, …); unnamed messages are handled too.
+  source.onmessage = handle;
+  for (const type of liveEventTypes) source.addEventListener(type, handle as EventListener);
   return () => source.close();
 }
 
