@@ -34,7 +34,11 @@ describe('imports in a real browser', () => {
     const file = page.getByTestId('import-file');
     await page.getByTestId('upload-card').waitFor();
 
-    await file.setInputFiles({ name: 'june-results.xlsx', mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', buffer: Buffer.from('PK\u0003\u0004') });
+    await file.setInputFiles({
+      name: 'june-results.xlsx',
+      mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      buffer: Buffer.from('PK\u0003\u0004'),
+    });
     await page.getByText(en.imports.upload.sheetTitle).waitFor();
 
     await file.setInputFiles('tests/fixtures/csv/lab-results-bad-rows.csv');
@@ -56,7 +60,9 @@ describe('imports in a real browser', () => {
     await commit.getByRole('checkbox').check();
     await store.click();
     await expect.poll(() => page.getByTestId('import-session').getAttribute('data-state'), { timeout: 20_000 }).toBe('committed');
-    const stored = Number(((await app.ds.query("SELECT count(*)::int AS n FROM water_tests WHERE source = 'import'")) as Array<{ n: number }>)[0]?.n ?? 0);
+    const stored = Number(
+      ((await app.ds.query("SELECT count(*)::int AS n FROM water_tests WHERE source = 'import'")) as Array<{ n: number }>)[0]?.n ?? 0,
+    );
     expect(await commit.textContent()).toContain(`${stored} row`);
     expect(stored).toBeGreaterThan(0);
 

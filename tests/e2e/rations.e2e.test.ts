@@ -25,12 +25,14 @@ describe('rations in a real browser', () => {
       const rows = [];
       for (let m = 26 * 60; m >= 5; m -= 15) {
         const at = new Date(Date.now() - m * 60_000);
-        for (const [quantity, value] of Object.entries({ water_temperature: 26, ph: 7.6, dissolved_oxygen: 7.2 })) rows.push({ probeId, quantity, at, value });
+        for (const [quantity, value] of Object.entries({ water_temperature: 26, ph: 7.6, dissolved_oxygen: 7.2 }))
+          rows.push({ probeId, quantity, at, value });
       }
       await insertReadings(app.ds, rows);
     }
     // As `npm run db:seed` does: the seeded kit results go to the worker, which then works out the day's recommendations.
-    for (const id of seed.waterTestIds) await app.queues.add('computeWaterTest', { farmId, waterTestId: id, version: 1 }, { jobId: `wt:${id}:1` });
+    for (const id of seed.waterTestIds)
+      await app.queues.add('computeWaterTest', { farmId, waterTestId: id, version: 1 }, { jobId: `wt:${id}:1` });
     await app.drain({ queues: ['results', 'feed'], timeoutMs: 60_000 });
     if (!app.baseUrl) throw new Error('no base URL');
     baseUrl = app.baseUrl;
@@ -83,7 +85,9 @@ describe('rations in a real browser', () => {
     await sheet.waitFor();
     const p1Kg = p1Label.replace(/^Accept /, '');
     expect(await sheet.locator('[data-testid="sheet-row"][data-unit-code="P1"] [data-testid="sheet-to-feed"]').textContent()).toBe(p1Kg);
-    expect(await sheet.locator('[data-testid="sheet-row"][data-unit-code="P2"] [data-testid="sheet-to-feed"]').textContent()).toBe('150.0 kg');
+    expect(await sheet.locator('[data-testid="sheet-row"][data-unit-code="P2"] [data-testid="sheet-to-feed"]').textContent()).toBe(
+      '150.0 kg',
+    );
     expect(await sheet.locator('[data-testid="sheet-row"][data-unit-code="P2"]').textContent()).toContain(note);
     expect(await sheet.locator('[data-testid="sheet-row"][data-unit-code="P3"] [data-testid="sheet-to-feed"]').textContent()).toBe(
       en.rations.sheet.notDecided,
@@ -118,7 +122,10 @@ describe('rations in a real browser', () => {
     const pending = await page.locator('[data-testid="ration-row"][data-status="pending"]').count();
     expect(pending).toBeGreaterThan(0);
     await page.getByTestId('bulk-bar').getByRole('button').first().click();
-    await page.getByRole('dialog').getByRole('button', { name: `Accept ${pending}` }).click();
+    await page
+      .getByRole('dialog')
+      .getByRole('button', { name: `Accept ${pending}` })
+      .click();
     await expect.poll(() => page.locator('[data-testid="ration-row"][data-status="pending"]').count()).toBe(0);
 
     await page.getByRole('tab', { name: en.rations.view.sheet }).click();

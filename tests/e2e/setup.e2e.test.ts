@@ -102,20 +102,37 @@ describe('setup in a real browser', () => {
 
     // The credential works: connect, publish a reading, and the broker stores it.
     const url = `mqtt://127.0.0.1:${app.broker!.port}`;
-    await expect(mqtt.connectAsync(url, { protocolVersion: 4, username, password: 'not-the-secret', clientId: username, reconnectPeriod: 0 })).rejects.toThrow(
-      /Bad username or password/,
-    );
+    await expect(
+      mqtt.connectAsync(url, { protocolVersion: 4, username, password: 'not-the-secret', clientId: username, reconnectPeriod: 0 }),
+    ).rejects.toThrow(/Bad username or password/);
     const client = await mqtt.connectAsync(url, { protocolVersion: 4, username, password: secret, clientId: username, reconnectPeriod: 0 });
     const sampleAt = new Date(Date.now() - 60_000).toISOString();
     await client.publishAsync(
       topic,
-      JSON.stringify({ v: 1, samples: [{ at: sampleAt, values: [{ quantity: 'water_temperature', value: 24.6, unit: 'C' }, { quantity: 'ph', value: 7.8, unit: 'pH' }] }] }),
+      JSON.stringify({
+        v: 1,
+        samples: [
+          {
+            at: sampleAt,
+            values: [
+              { quantity: 'water_temperature', value: 24.6, unit: 'C' },
+              { quantity: 'ph', value: 7.8, unit: 'pH' },
+            ],
+          },
+        ],
+      }),
       { qos: 1 },
     );
     await client.endAsync();
     const probeId = ((await app.ds.query('SELECT id FROM probes WHERE probe_key = $1', [username])) as Array<{ id: string }>)[0]!.id;
     await expect
-      .poll(async () => Number(((await app.ds.query('SELECT count(*)::int AS n FROM readings WHERE probe_id = $1', [probeId])) as Array<{ n: number }>)[0]!.n), { timeout: 10_000 })
+      .poll(
+        async () =>
+          Number(
+            ((await app.ds.query('SELECT count(*)::int AS n FROM readings WHERE probe_id = $1', [probeId])) as Array<{ n: number }>)[0]!.n,
+          ),
+        { timeout: 10_000 },
+      )
       .toBe(2);
 
     // Closing the dialog drops the secret: it is nowhere on the page any more.

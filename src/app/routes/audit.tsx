@@ -13,7 +13,7 @@ export default function AuditRoute() {
       <title>{`${t('nav.audit')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header>
         <h1 className="text-3xl font-bold leading-tight">{t('audit.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('audit.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('audit.intro')}</p>
       </header>
       <AuditScreen farmId={farmId} timeZone={current?.farm.timeZone ?? 'UTC'} />
     </div>

@@ -13,7 +13,7 @@ export default function ImportsRoute() {
       <title>{`${t('nav.imports')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header>
         <h1 className="text-3xl font-bold leading-tight">{t('imports.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('imports.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('imports.intro')}</p>
       </header>
       <ImportsScreen farmId={farmId} timeZone={current?.farm.timeZone ?? 'UTC'} />
     </div>

@@ -15,7 +15,7 @@ export default function OutboxRoute() {
       <title>{`${t('nav.outbox')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header>
         <h1 className="text-3xl font-bold leading-tight">{t('outbox.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('outbox.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('outbox.intro')}</p>
       </header>
       <OutboxScreen farmId={farmId} timeZone={current?.farm.timeZone ?? 'UTC'} isAdmin={me?.user.isAdmin ?? false} />
     </div>

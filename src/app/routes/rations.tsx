@@ -32,7 +32,7 @@ export default function RationsRoute() {
       <title>{`${t('nav.rations')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header className="gw-no-print">
         <h1 className="text-3xl font-bold leading-tight">{t('rations.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('rations.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('rations.intro')}</p>
       </header>
       <RationsScreen
         farmId={farmId}

@@ -13,7 +13,7 @@ export default function RecordsRoute() {
       <title>{`${t('nav.records')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header className="gw-no-print">
         <h1 className="text-3xl font-bold leading-tight">{t('records.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('records.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('records.intro')}</p>
       </header>
       <RecordsScreen farmId={farmId} timeZone={current?.farm.timeZone ?? 'UTC'} />
     </div>

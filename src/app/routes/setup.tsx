@@ -28,7 +28,7 @@ export default function SetupRoute({ fixedTab }: { fixedTab?: SetupTab }) {
       <title>{`${t(tab === 'people' ? 'nav.people' : 'nav.setup')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header className="gw-no-print">
         <h1 className="text-3xl font-bold leading-tight">{t('setup.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('setup.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('setup.intro')}</p>
       </header>
       <SetupScreen
         farmId={farmId}

@@ -14,7 +14,7 @@ export default function StockRoute() {
       <title>{`${t('nav.stock')} · ${current?.farm.name ?? ''} · Gillwise`}</title>
       <header>
         <h1 className="text-3xl font-bold leading-tight">{t('stock.title')}</h1>
-        <p className="mt-1 max-w-prose text-lg text-muted">{t('stock.intro')}</p>
+        <p className="mt-1 max-w-prose text-base text-muted sm:text-lg">{t('stock.intro')}</p>
       </header>
       <StockScreen
         farmId={farmId}

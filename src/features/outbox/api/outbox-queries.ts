@@ -29,7 +29,13 @@ export const outboxQueries = {
         api.get(base(farmId, f.scope), {
           schema: outboxListSchema,
           signal,
-          query: { kind: f.kind, status: f.status, limit: 30, cursor: pageParam ?? undefined, ...(f.scope === 'farmless' ? { scope: 'farmless' } : {}) },
+          query: {
+            kind: f.kind,
+            status: f.status,
+            limit: 30,
+            cursor: pageParam ?? undefined,
+            ...(f.scope === 'farmless' ? { scope: 'farmless' } : {}),
+          },
         }),
       initialPageParam: null as string | null,
       getNextPageParam: (last) => last.nextCursor,

@@ -22,26 +22,45 @@ function Detail({ farmId, scope, id, timeZone }: { farmId: string; scope: Outbox
   const { t, i18n } = useTranslation();
   const q = useQuery(outboxQueries.detail(farmId, scope, id));
   if (q.isPending) return <Spinner label={t('outbox.loading')} />;
-  if (q.isError) return <Callout tone="danger" title={t('outbox.detailFailed')}>{requestErrorText(t, q.error)}</Callout>;
+  if (q.isError)
+    return (
+      <Callout tone="danger" title={t('outbox.detailFailed')}>
+        {requestErrorText(t, q.error)}
+      </Callout>
+    );
   const d = q.data;
   return (
     <div className="grid gap-3 lg:grid-cols-2" data-testid="outbox-detail">
-      <div className="flex flex-col gap-1">
+      <div className="flex min-w-0 flex-col gap-1">
         <h4 className="text-base font-bold">{t('outbox.sentText')}</h4>
-        <pre className="max-h-80 overflow-auto whitespace-pre-wrap break-words rounded-xl border-2 border-line bg-paper p-3 font-mono text-sm" data-testid="outbox-body">
+        <pre
+          className="max-h-80 overflow-auto whitespace-pre-wrap break-words rounded-xl border-2 border-line bg-paper p-3 font-mono text-sm"
+          data-testid="outbox-body"
+        >
           {d.body}
         </pre>
       </div>
-      <div className="flex flex-col gap-1">
+      <div className="flex min-w-0 flex-col gap-1">
         <h4 className="text-base font-bold">{t('outbox.receivedText')}</h4>
         {d.receivedText !== null ? (
           <>
-            <pre className="max-h-80 overflow-auto whitespace-pre-wrap break-words rounded-xl border-2 border-line bg-card p-3 font-mono text-sm" data-testid="outbox-received">
+            <pre
+              className="max-h-80 overflow-auto whitespace-pre-wrap break-words rounded-xl border-2 border-line bg-card p-3 font-mono text-sm"
+              data-testid="outbox-received"
+            >
               {d.receivedText}
             </pre>
             {d.received ? (
               <p className="text-sm text-muted">
-                {t('outbox.receivedAt', { time: new Intl.DateTimeFormat(i18n.language, { timeZone, dateStyle: 'medium', timeStyle: 'medium', hourCycle: 'h23' }).format(new Date(d.received.receivedAt)), from: d.received.from })}
+                {t('outbox.receivedAt', {
+                  time: new Intl.DateTimeFormat(i18n.language, {
+                    timeZone,
+                    dateStyle: 'medium',
+                    timeStyle: 'medium',
+                    hourCycle: 'h23',
+                  }).format(new Date(d.received.receivedAt)),
+                  from: d.received.from,
+                })}
               </p>
             ) : null}
           </>
@@ -59,7 +78,7 @@ function Message({ farmId, scope, m, timeZone }: { farmId: string; scope: Outbox
   const [open, setOpen] = useState(false);
   const look = deliveryLook[m.delivery];
   return (
-    <li className="gw-card flex flex-col gap-3 p-4" data-testid="outbox-message" data-kind={m.kind} data-to={m.to}>
+    <li className="gw-card flex min-w-0 flex-col gap-3 p-4" data-testid="outbox-message" data-kind={m.kind} data-to={m.to}>
       <button type="button" className="flex flex-col gap-2 text-left" onClick={() => setOpen((v) => !v)} aria-expanded={open}>
         <span className="flex flex-wrap items-center gap-2">
           <span className="rounded-full bg-abyss-700 px-2.5 py-0.5 text-sm font-bold text-white">{t(`outbox.kind.${m.kind}`)}</span>
@@ -68,7 +87,9 @@ function Message({ farmId, scope, m, timeZone }: { farmId: string; scope: Outbox
             {t(`outbox.delivery.${m.delivery}`)}
           </span>
           <span className="ml-auto text-sm tabular-nums text-muted">
-            {new Intl.DateTimeFormat(i18n.language, { timeZone, dateStyle: 'medium', timeStyle: 'short', hourCycle: 'h23' }).format(new Date(m.sentAt ?? m.createdAt))}
+            {new Intl.DateTimeFormat(i18n.language, { timeZone, dateStyle: 'medium', timeStyle: 'short', hourCycle: 'h23' }).format(
+              new Date(m.sentAt ?? m.createdAt),
+            )}
           </span>
         </span>
         <span className="text-lg font-bold leading-snug" data-testid="outbox-subject">
@@ -88,7 +109,11 @@ export function OutboxScreen({ farmId, timeZone, isAdmin }: { farmId: string; ti
   const [scope, setScope] = useState<OutboxScope>('farm');
   const [kind, setKind] = useState('');
   const [status, setStatus] = useState('');
-  const filters: OutboxFilters = { scope, kind: (kind || undefined) as OutboxFilters['kind'], status: (status || undefined) as OutboxFilters['status'] };
+  const filters: OutboxFilters = {
+    scope,
+    kind: (kind || undefined) as OutboxFilters['kind'],
+    status: (status || undefined) as OutboxFilters['status'],
+  };
   const q = useInfiniteQuery(outboxQueries.list(farmId, filters));
   const messages = useMemo(() => q.data?.pages.flatMap((p) => p.messages) ?? [], [q.data]);
   const reachable = q.data?.pages.every((p) => p.catcherReachable) ?? true;
@@ -96,7 +121,11 @@ export function OutboxScreen({ farmId, timeZone, isAdmin }: { farmId: string; ti
   return (
     <div className="flex flex-col gap-5" data-testid="outbox">
       {isAdmin ? (
-        <div role="tablist" aria-label={t('outbox.scopeLabel')} className="inline-flex w-full flex-wrap rounded-xl border-2 border-abyss-700 bg-card p-1 sm:w-auto">
+        <div
+          role="tablist"
+          aria-label={t('outbox.scopeLabel')}
+          className="inline-flex w-full flex-wrap rounded-xl border-2 border-abyss-700 bg-card p-1 sm:w-auto"
+        >
           {(['farm', 'farmless'] as const).map((s) => (
             <button
               key={s}
@@ -104,16 +133,32 @@ export function OutboxScreen({ farmId, timeZone, isAdmin }: { farmId: string; ti
               role="tab"
               aria-selected={scope === s}
               onClick={() => setScope(s)}
-              className={cx('min-h-11 flex-1 rounded-lg px-4 text-base font-bold sm:flex-none', scope === s ? 'bg-abyss-700 text-white' : 'text-abyss-800 hover:bg-abyss-50')}
+              className={cx(
+                'min-h-11 flex-1 rounded-lg px-4 text-base font-bold sm:flex-none',
+                scope === s ? 'bg-abyss-700 text-white' : 'text-abyss-800 hover:bg-abyss-50',
+              )}
             >
               {t(`outbox.scope.${s}`)}
             </button>
           ))}
         </div>
       ) : null}
-      <div className="grid gap-4 sm:grid-cols-2 lg:max-w-2xl">
-        <Select label={t('outbox.filter.kind')} value={kind} onChange={(e) => setKind(e.target.value)} options={[{ value: '', label: t('outbox.filter.all') }, ...outboxKinds.map((k) => ({ value: k, label: t(`outbox.kind.${k}`) }))]} />
-        <Select label={t('outbox.filter.status')} value={status} onChange={(e) => setStatus(e.target.value)} options={[{ value: '', label: t('outbox.filter.all') }, ...outboxStatuses.map((k) => ({ value: k, label: t(`outbox.status.${k}`) }))]} />
+      <div className="grid grid-cols-2 gap-3 sm:gap-4 lg:max-w-2xl">
+        <Select
+          label={t('outbox.filter.kind')}
+          value={kind}
+          onChange={(e) => setKind(e.target.value)}
+          options={[{ value: '', label: t('outbox.filter.all') }, ...outboxKinds.map((k) => ({ value: k, label: t(`outbox.kind.${k}`) }))]}
+        />
+        <Select
+          label={t('outbox.filter.status')}
+          value={status}
+          onChange={(e) => setStatus(e.target.value)}
+          options={[
+            { value: '', label: t('outbox.filter.all') },
+            ...outboxStatuses.map((k) => ({ value: k, label: t(`outbox.status.${k}`) })),
+          ]}
+        />
       </div>
       {!reachable ? (
         <Callout tone="caution" title={t('outbox.catcherDown')}>

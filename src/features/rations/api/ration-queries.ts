@@ -12,7 +12,8 @@ export const rationQueries = {
   sheet: (farmId: string, day: string | null) =>
     queryOptions({
       queryKey: rationKeys.sheet(farmId, day),
-      queryFn: ({ signal }) => api.get(`${farmApi(farmId)}/rations`, { schema: rationSheetSchema, signal, query: { day: day ?? undefined } }),
+      queryFn: ({ signal }) =>
+        api.get(`${farmApi(farmId)}/rations`, { schema: rationSheetSchema, signal, query: { day: day ?? undefined } }),
       staleTime: 15_000,
     }),
 };

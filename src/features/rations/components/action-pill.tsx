@@ -15,7 +15,11 @@ export function ActionPill({ action, cutPct, className }: { action: Recommendati
   return (
     <span
       data-action={action}
-      className={cx('inline-flex items-center gap-1.5 rounded-full border-2 px-3 py-1 text-base font-bold leading-none', look.className, className)}
+      className={cx(
+        'inline-flex items-center gap-1.5 rounded-full border-2 px-3 py-1 text-base font-bold leading-none',
+        look.className,
+        className,
+      )}
     >
       <span aria-hidden="true">{look.glyph}</span>
       {action === 'cut' ? t('rations.action.cut', { pct: Math.round(cutPct) }) : t(`rations.action.${action}`)}

@@ -100,7 +100,13 @@ describe('OverrideForm', () => {
     const { user, onDone } = setup({
       [overridePath]: () => ({
         status: 400,
-        body: { error: { code: 'validation_failed', message: 'Invalid body', details: { fieldErrors: { note: ['Say why the recommendation is overridden'] } } } },
+        body: {
+          error: {
+            code: 'validation_failed',
+            message: 'Invalid body',
+            details: { fieldErrors: { note: ['Say why the recommendation is overridden'] } },
+          },
+        },
       }),
     });
     await user.type(screen.getByLabelText('Why not the recommendation?'), 'abc');

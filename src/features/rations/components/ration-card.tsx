@@ -60,7 +60,18 @@ export function humanSpecies(species: string | null): string | null {
 }
 
 /** One unit's ration for the day: the figures behind it, what the rule proposes and why, and the decision. */
-export function RationCard({ row, day, timeZone, unitHref, canDecide, selected, onSelect, onAccept, onOverride, accepting }: RationCardProps) {
+export function RationCard({
+  row,
+  day,
+  timeZone,
+  unitHref,
+  canDecide,
+  selected,
+  onSelect,
+  onAccept,
+  onOverride,
+  accepting,
+}: RationCardProps) {
   const { t, i18n } = useTranslation();
   const locale = i18n.language;
   const rec = row.recommendation;
@@ -163,13 +174,15 @@ export function RationCard({ row, day, timeZone, unitHref, canDecide, selected, 
           <section aria-label={t('rations.recommendation')} className="flex flex-col gap-3">
             <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
               <ActionPill action={rec.action} cutPct={rec.cutPct} />
-              <span className="text-lg">
-                {t('rations.recommendedKg', { kg: fmtKg(rec.recommendedKg, locale) })}
-              </span>
+              <span className="text-lg">{t('rations.recommendedKg', { kg: fmtKg(rec.recommendedKg, locale) })}</span>
             </div>
             <ReasonList reasons={rec.reasons} />
           </section>
-          <section aria-label={t('rations.decision')} className="flex flex-col gap-3 lg:border-l-2 lg:border-line lg:pl-4" data-testid="decision">
+          <section
+            aria-label={t('rations.decision')}
+            className="flex flex-col gap-3 lg:border-l-2 lg:border-line lg:pl-4"
+            data-testid="decision"
+          >
             {row.status === 'pending' ? (
               <>
                 <p className="text-base text-muted">{t('rations.waiting')}</p>
@@ -188,10 +201,14 @@ export function RationCard({ row, day, timeZone, unitHref, canDecide, selected, 
               <>
                 <p className="text-lg">
                   <span className="font-bold">
-                    {t(row.status === 'accepted' ? 'rations.acceptedKg' : 'rations.overriddenKg', { kg: fmtKg(rec.approvedKg ?? 0, locale) })}
+                    {t(row.status === 'accepted' ? 'rations.acceptedKg' : 'rations.overriddenKg', {
+                      kg: fmtKg(rec.approvedKg ?? 0, locale),
+                    })}
                   </span>
                   {rec.decidedAt ? (
-                    <span className="block text-sm text-muted">{t('rations.decidedAt', { time: farmClock(rec.decidedAt, timeZone, locale, day) })}</span>
+                    <span className="block text-sm text-muted">
+                      {t('rations.decidedAt', { time: farmClock(rec.decidedAt, timeZone, locale, day) })}
+                    </span>
                   ) : null}
                 </p>
                 {rec.overrideNote ? (
@@ -201,10 +218,15 @@ export function RationCard({ row, day, timeZone, unitHref, canDecide, selected, 
                 ) : null}
                 {rec.laterProposal ? (
                   <div className="rounded-xl border-2 border-ember-500 bg-ember-50 px-3 py-2 text-base" data-testid="later-proposal">
-                    <p className="font-bold">{t('rations.later.title', { time: farmClock(rec.laterProposal.computedAt, timeZone, locale, day) })}</p>
+                    <p className="font-bold">
+                      {t('rations.later.title', { time: farmClock(rec.laterProposal.computedAt, timeZone, locale, day) })}
+                    </p>
                     <p>
                       {rec.laterProposal.action === 'cut'
-                        ? t('rations.later.cut', { pct: Math.round(rec.laterProposal.cutPct), kg: fmtKg(rec.laterProposal.recommendedKg, locale) })
+                        ? t('rations.later.cut', {
+                            pct: Math.round(rec.laterProposal.cutPct),
+                            kg: fmtKg(rec.laterProposal.recommendedKg, locale),
+                          })
                         : t(`rations.later.${rec.laterProposal.action}`, { kg: fmtKg(rec.laterProposal.recommendedKg, locale) })}
                     </p>
                     {canDecide ? (
@@ -242,7 +264,10 @@ export function DecisionBadge({ status }: { status: RationSheetRowDto['status'] 
     <span
       data-testid="decision-status"
       data-status={status}
-      className={cx('inline-flex shrink-0 items-center gap-1.5 rounded-full border-2 px-3 py-1 text-sm font-bold uppercase tracking-wide', look.className)}
+      className={cx(
+        'inline-flex shrink-0 items-center gap-1.5 rounded-full border-2 px-3 py-1 text-sm font-bold uppercase tracking-wide',
+        look.className,
+      )}
     >
       <span aria-hidden="true">{look.glyph}</span>
       {t(`rations.status.${status}`)}

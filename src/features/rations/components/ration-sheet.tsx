@@ -32,7 +32,11 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
   const cell = 'border border-line px-3 py-2 align-top';
 
   return (
-    <section className="gw-ration-print gw-card flex flex-col gap-4 p-4 sm:p-6" data-testid="ration-sheet" aria-labelledby="ration-sheet-title">
+    <section
+      className="gw-ration-print gw-card flex flex-col gap-4 p-4 sm:p-6"
+      data-testid="ration-sheet"
+      aria-labelledby="ration-sheet-title"
+    >
       <style>{printCss}</style>
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 id="ration-sheet-title" className="text-2xl font-bold">
@@ -45,12 +49,24 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
         <table className="w-full border-collapse text-base">
           <thead className="bg-abyss-50 text-left">
             <tr>
-              <th scope="col" className={cell}>{t('rations.sheet.unit')}</th>
-              <th scope="col" className={`${cell} text-right`}>{t('rations.sheet.toFeed')}</th>
-              <th scope="col" className={cell}>{t('rations.sheet.why')}</th>
-              <th scope="col" className={`${cell} w-28`}>{t('rations.sheet.fed')}</th>
-              <th scope="col" className={`${cell} w-24`}>{t('rations.sheet.time')}</th>
-              <th scope="col" className={`${cell} w-24`}>{t('rations.sheet.initials')}</th>
+              <th scope="col" className={cell}>
+                {t('rations.sheet.unit')}
+              </th>
+              <th scope="col" className={`${cell} text-right`}>
+                {t('rations.sheet.toFeed')}
+              </th>
+              <th scope="col" className={cell}>
+                {t('rations.sheet.why')}
+              </th>
+              <th scope="col" className={`${cell} w-28`}>
+                {t('rations.sheet.fed')}
+              </th>
+              <th scope="col" className={`${cell} w-24`}>
+                {t('rations.sheet.time')}
+              </th>
+              <th scope="col" className={`${cell} w-24`}>
+                {t('rations.sheet.initials')}
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -58,7 +74,7 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
               const rec = r.recommendation;
               const why =
                 r.status === 'overridden'
-                  ? rec?.overrideNote ?? ''
+                  ? (rec?.overrideNote ?? '')
                   : r.status === 'accepted' && rec && rec.action !== 'feed'
                     ? (rec.reasons.find((x) => x.effect === 'withhold' || x.effect === 'cut')?.text ?? '')
                     : '';
@@ -92,10 +108,14 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
           </tbody>
           <tfoot>
             <tr className="bg-abyss-50">
-              <th scope="row" className={`${cell} text-left`}>{t('rations.sheet.total')}</th>
+              <th scope="row" className={`${cell} text-left`}>
+                {t('rations.sheet.total')}
+              </th>
               <td className={`${cell} text-right text-lg font-bold tabular-nums`}>{fmtKg(sheet.totals.approvedKg, locale)} kg</td>
               <td className={cell} colSpan={4}>
-                {sheet.totals.pending > 0 ? t('rations.sheet.pendingCount', { count: sheet.totals.pending }) : t('rations.sheet.allDecided')}
+                {sheet.totals.pending > 0
+                  ? t('rations.sheet.pendingCount', { count: sheet.totals.pending })
+                  : t('rations.sheet.allDecided')}
               </td>
             </tr>
           </tfoot>

@@ -110,10 +110,18 @@ export function RationsScreen({ farmId, farmName, timeZone, day, onDay, view, on
           <p className="text-center text-lg font-bold leading-tight sm:text-xl" aria-live="polite" data-testid="ration-day">
             {formatDay(sheet.day, locale)}
             {isToday ? (
-              <span className="ml-2 inline-block rounded-full bg-abyss-700 px-2 py-0.5 align-middle text-sm text-white">{t('rations.today')}</span>
+              <span className="ml-2 inline-block rounded-full bg-abyss-700 px-2 py-0.5 align-middle text-sm text-white">
+                {t('rations.today')}
+              </span>
             ) : null}
           </p>
-          <Button variant="secondary" size="icon" className="sm:px-4" onClick={() => go(addDays(sheet.day, 1))} aria-label={t('rations.next')}>
+          <Button
+            variant="secondary"
+            size="icon"
+            className="sm:px-4"
+            onClick={() => go(addDays(sheet.day, 1))}
+            aria-label={t('rations.next')}
+          >
             <span className="hidden sm:inline">{t('rations.next')}</span>
             <Icon name="arrowRight" />
           </Button>
@@ -125,7 +133,11 @@ export function RationsScreen({ farmId, farmName, timeZone, day, onDay, view, on
         ) : null}
       </nav>
 
-      <div role="tablist" aria-label={t('rations.viewLabel')} className="gw-no-print inline-flex w-full rounded-xl border-2 border-abyss-700 bg-card p-1 sm:w-auto">
+      <div
+        role="tablist"
+        aria-label={t('rations.viewLabel')}
+        className="gw-no-print inline-flex w-full rounded-xl border-2 border-abyss-700 bg-card p-1 sm:w-auto"
+      >
         {(['plan', 'sheet'] as const).map((v) => (
           <button
             key={v}
@@ -250,7 +262,13 @@ export function RationsScreen({ farmId, farmName, timeZone, day, onDay, view, on
         title={overriding ? t('rations.override.title', { unit: `${overriding.unitCode} ${overriding.unitName}` }) : ''}
       >
         {overriding ? (
-          <OverrideForm key={overriding.recommendationId} farmId={farmId} target={overriding} onDone={() => setOverriding(null)} onCancel={() => setOverriding(null)} />
+          <OverrideForm
+            key={overriding.recommendationId}
+            farmId={farmId}
+            target={overriding}
+            onDone={() => setOverriding(null)}
+            onCancel={() => setOverriding(null)}
+          />
         ) : null}
       </Dialog>
 

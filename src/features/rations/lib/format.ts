@@ -32,9 +32,13 @@ export function addDays(day: string, n: number): string {
 /** A farm-local day written out ("Tuesday 1 December"). */
 export function formatDay(day: string, locale: string, withYear = false): string {
   const [y, m, d] = day.split('-').map(Number) as [number, number, number];
-  return new Intl.DateTimeFormat(locale, { timeZone: 'UTC', weekday: 'long', day: 'numeric', month: 'long', year: withYear ? 'numeric' : undefined }).format(
-    new Date(Date.UTC(y, m - 1, d)),
-  );
+  return new Intl.DateTimeFormat(locale, {
+    timeZone: 'UTC',
+    weekday: 'long',
+    day: 'numeric',
+    month: 'long',
+    year: withYear ? 'numeric' : undefined,
+  }).format(new Date(Date.UTC(y, m - 1, d)));
 }
 
 export function isDay(v: unknown): v is string {

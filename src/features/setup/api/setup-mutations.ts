@@ -37,12 +37,16 @@ const enc = encodeURIComponent;
 // --- units ---
 
 export function useCreateUnit(farmId: string) {
-  return useSetupMutation((body: CreateUnitRequest) => api.post(`${farmApi(farmId)}/units`, body, { schema: unitSchema }), [setupKeys.units(farmId)]);
+  return useSetupMutation(
+    (body: CreateUnitRequest) => api.post(`${farmApi(farmId)}/units`, body, { schema: unitSchema }),
+    [setupKeys.units(farmId)],
+  );
 }
 
 export function useUpdateUnit(farmId: string) {
   return useSetupMutation(
-    ({ unitId, body }: { unitId: string; body: UpdateUnitRequest }) => api.patch(`${farmApi(farmId)}/units/${enc(unitId)}`, body, { schema: unitSchema }),
+    ({ unitId, body }: { unitId: string; body: UpdateUnitRequest }) =>
+      api.patch(`${farmApi(farmId)}/units/${enc(unitId)}`, body, { schema: unitSchema }),
     [setupKeys.units(farmId)],
   );
 }
@@ -68,7 +72,8 @@ export function useCreateProbe(farmId: string) {
 
 export function useRotateCredential(farmId: string) {
   return useSetupMutation(
-    ({ probeId }: { probeId: string }) => api.post(`${farmApi(farmId)}/probes/${enc(probeId)}/credential`, {}, { schema: probeCredentialResponseSchema }),
+    ({ probeId }: { probeId: string }) =>
+      api.post(`${farmApi(farmId)}/probes/${enc(probeId)}/credential`, {}, { schema: probeCredentialResponseSchema }),
     [setupKeys.probes(farmId)],
     { gcTime: 0 },
   );
@@ -76,7 +81,8 @@ export function useRotateCredential(farmId: string) {
 
 export function useUpdateProbe(farmId: string) {
   return useSetupMutation(
-    ({ probeId, body }: { probeId: string; body: UpdateProbeRequest }) => api.patch(`${farmApi(farmId)}/probes/${enc(probeId)}`, body, { schema: probeSchema }),
+    ({ probeId, body }: { probeId: string; body: UpdateProbeRequest }) =>
+      api.patch(`${farmApi(farmId)}/probes/${enc(probeId)}`, body, { schema: probeSchema }),
     [setupKeys.probes(farmId)],
   );
 }
@@ -90,7 +96,8 @@ export function useDeactivateProbe(farmId: string) {
 
 export function useAddCalibration(farmId: string, probeId: string) {
   return useSetupMutation(
-    (body: CreateCalibrationRequest) => api.post(`${farmApi(farmId)}/probes/${enc(probeId)}/calibrations`, body, { schema: calibrationSchema }),
+    (body: CreateCalibrationRequest) =>
+      api.post(`${farmApi(farmId)}/probes/${enc(probeId)}/calibrations`, body, { schema: calibrationSchema }),
     [setupKeys.calibrations(farmId, probeId), setupKeys.probes(farmId)],
   );
 }
@@ -129,11 +136,17 @@ export function useUpdateFeedingTable(farmId: string) {
 }
 
 export function usePutOnCall(farmId: string) {
-  return useSetupMutation((body: PutOnCallRequest) => api.put(`${farmApi(farmId)}/on-call`, body, { schema: onCallResponseSchema }), [setupKeys.onCall(farmId)]);
+  return useSetupMutation(
+    (body: PutOnCallRequest) => api.put(`${farmApi(farmId)}/on-call`, body, { schema: onCallResponseSchema }),
+    [setupKeys.onCall(farmId)],
+  );
 }
 
 export function useInvitePerson(farmId: string) {
-  return useSetupMutation((body: InviteRequest) => api.post(`${farmApi(farmId)}/people`, body, { schema: personSchema }), [setupKeys.people(farmId)]);
+  return useSetupMutation(
+    (body: InviteRequest) => api.post(`${farmApi(farmId)}/people`, body, { schema: personSchema }),
+    [setupKeys.people(farmId)],
+  );
 }
 
 export function useUpdatePerson(farmId: string) {

@@ -2,11 +2,7 @@ import { onCallResponseSchema } from '@shared/schemas/alerts.schema';
 import { farmSchema } from '@shared/schemas/farms.schema';
 import { feedingTableSchema } from '@shared/schemas/feed.schema';
 import { personSchema } from '@shared/schemas/people.schema';
-import {
-  calibrationListResponseSchema,
-  maintenanceWindowListResponseSchema,
-  probeListResponseSchema,
-} from '@shared/schemas/probes.schema';
+import { calibrationListResponseSchema, maintenanceWindowListResponseSchema, probeListResponseSchema } from '@shared/schemas/probes.schema';
 import { thresholdProfileListResponseSchema } from '@shared/schemas/thresholds.schema';
 import { flowListResponseSchema, unitLabelResponseSchema, unitListResponseSchema } from '@shared/schemas/units.schema';
 import { queryOptions } from '@tanstack/react-query';
@@ -34,12 +30,18 @@ export const setupQueries = {
   flows: (farmId: string, unitId: string) =>
     queryOptions({
       queryKey: setupKeys.flows(farmId, unitId),
-      queryFn: ({ signal }) => api.get(`${farmApi(farmId)}/units/${encodeURIComponent(unitId)}/flows`, { schema: flowListResponseSchema, signal, query: { limit: 20 } }),
+      queryFn: ({ signal }) =>
+        api.get(`${farmApi(farmId)}/units/${encodeURIComponent(unitId)}/flows`, {
+          schema: flowListResponseSchema,
+          signal,
+          query: { limit: 20 },
+        }),
     }),
   label: (farmId: string, unitId: string) =>
     queryOptions({
       queryKey: setupKeys.label(farmId, unitId),
-      queryFn: ({ signal }) => api.get(`${farmApi(farmId)}/units/${encodeURIComponent(unitId)}/label`, { schema: unitLabelResponseSchema, signal }),
+      queryFn: ({ signal }) =>
+        api.get(`${farmApi(farmId)}/units/${encodeURIComponent(unitId)}/label`, { schema: unitLabelResponseSchema, signal }),
       staleTime: Infinity,
     }),
   probes: (farmId: string) =>
@@ -52,14 +54,23 @@ export const setupQueries = {
     queryOptions({
       queryKey: setupKeys.calibrations(farmId, probeId),
       queryFn: async ({ signal }) =>
-        (await api.get(`${farmApi(farmId)}/probes/${encodeURIComponent(probeId)}/calibrations`, { schema: calibrationListResponseSchema, signal })).calibrations,
+        (
+          await api.get(`${farmApi(farmId)}/probes/${encodeURIComponent(probeId)}/calibrations`, {
+            schema: calibrationListResponseSchema,
+            signal,
+          })
+        ).calibrations,
     }),
   windows: (farmId: string, probeId: string) =>
     queryOptions({
       queryKey: setupKeys.windows(farmId, probeId),
       queryFn: async ({ signal }) =>
-        (await api.get(`${farmApi(farmId)}/probes/${encodeURIComponent(probeId)}/maintenance-windows`, { schema: maintenanceWindowListResponseSchema, signal }))
-          .windows,
+        (
+          await api.get(`${farmApi(farmId)}/probes/${encodeURIComponent(probeId)}/maintenance-windows`, {
+            schema: maintenanceWindowListResponseSchema,
+            signal,
+          })
+        ).windows,
     }),
   thresholds: (farmId: string) =>
     queryOptions({

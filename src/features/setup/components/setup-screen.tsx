@@ -1,4 +1,5 @@
 import type { Role } from '@shared/schemas/auth.schema';
+import { useEffect, useRef } from 'react';
 import { useTranslation } from 'react-i18next';
 import { cx } from '@/components/ui/cx';
 import { FeedingTablesPanel } from './feeding/feeding-tables-panel';
@@ -27,10 +28,22 @@ export function SetupScreen({ farmId, timeZone, role, tab, onTab, outboxHref, la
   const { t } = useTranslation();
   const office = role === 'manager' || role === 'admin';
   const decides = office || role === 'planner';
+  const strip = useRef<HTMLDivElement>(null);
+  // Keep the chosen tab in sight in the scrolling strip on phones (sideways only, the page stays put).
+  useEffect(() => {
+    const box = strip.current;
+    const el = box?.querySelector<HTMLElement>(`#setup-tab-${tab}`);
+    if (box && el && (el.offsetLeft < box.scrollLeft || el.offsetLeft + el.offsetWidth > box.scrollLeft + box.clientWidth))
+      box.scrollLeft = el.offsetLeft - 16;
+  }, [tab]);
   return (
     <div className="flex flex-col gap-5" data-testid="setup" data-tab={tab}>
-      <div className="gw-no-print -mx-1 overflow-x-auto px-1 pb-1">
-        <div role="tablist" aria-label={t('setup.tabsLabel')} className="inline-flex min-w-full gap-1 rounded-xl border-2 border-abyss-700 bg-card p-1 sm:min-w-0">
+      <div ref={strip} className="gw-no-print -mx-1 overflow-x-auto px-1 pb-1">
+        <div
+          role="tablist"
+          aria-label={t('setup.tabsLabel')}
+          className="inline-flex min-w-full gap-1 rounded-xl border-2 border-abyss-700 bg-card p-1 sm:min-w-0"
+        >
           {setupTabs.map((k) => (
             <button
               key={k}
@@ -40,7 +53,10 @@ export function SetupScreen({ farmId, timeZone, role, tab, onTab, outboxHref, la
               aria-selected={tab === k}
               aria-controls="setup-panel"
               onClick={() => onTab(k)}
-              className={cx('min-h-11 shrink-0 whitespace-nowrap rounded-lg px-4 text-base font-bold', tab === k ? 'bg-abyss-700 text-white' : 'text-abyss-800 hover:bg-abyss-50')}
+              className={cx(
+                'min-h-11 shrink-0 whitespace-nowrap rounded-lg px-4 text-base font-bold',
+                tab === k ? 'bg-abyss-700 text-white' : 'text-abyss-800 hover:bg-abyss-50',
+              )}
             >
               {t(`setup.tab.${k}`)}
             </button>

@@ -30,7 +30,11 @@ export function TextAreaField({ label, hint, error, id: givenId, className, requ
         aria-required={required || undefined}
         aria-invalid={error ? true : undefined}
         aria-describedby={[hint ? hintId : null, error ? errorId : null].filter(Boolean).join(' ') || undefined}
-        className={cx('block w-full rounded-xl border-2 bg-card px-4 py-3 text-lg text-ink', error ? 'border-act' : 'border-line hover:border-abyss-500', className)}
+        className={cx(
+          'block w-full rounded-xl border-2 bg-card px-4 py-3 text-lg text-ink',
+          error ? 'border-act' : 'border-line hover:border-abyss-500',
+          className,
+        )}
         {...rest}
       />
       {error ? (

@@ -35,7 +35,12 @@ export function editorStyle(): StyleSpecification {
         type: 'fill',
         source: 'units',
         paint: {
-          'fill-color': ['case', ['==', ['get', 'selected'], true], editorPalette.selectedFill, editorPalette.unitFill] as unknown as string,
+          'fill-color': [
+            'case',
+            ['==', ['get', 'selected'], true],
+            editorPalette.selectedFill,
+            editorPalette.unitFill,
+          ] as unknown as string,
           'fill-opacity': 0.85,
         },
       },
@@ -44,11 +49,22 @@ export function editorStyle(): StyleSpecification {
         type: 'line',
         source: 'units',
         paint: {
-          'line-color': ['case', ['==', ['get', 'selected'], true], editorPalette.selectedLine, editorPalette.unitLine] as unknown as string,
+          'line-color': [
+            'case',
+            ['==', ['get', 'selected'], true],
+            editorPalette.selectedLine,
+            editorPalette.unitLine,
+          ] as unknown as string,
           'line-width': ['case', ['==', ['get', 'selected'], true], 3, 1.5] as unknown as number,
         },
       },
-      { id: 'draft-fill', type: 'fill', source: 'draft', filter: ['==', ['geometry-type'], 'Polygon'], paint: { 'fill-color': editorPalette.draftFill, 'fill-opacity': 0.35 } },
+      {
+        id: 'draft-fill',
+        type: 'fill',
+        source: 'draft',
+        filter: ['==', ['geometry-type'], 'Polygon'],
+        paint: { 'fill-color': editorPalette.draftFill, 'fill-opacity': 0.35 },
+      },
       {
         id: 'draft-line',
         type: 'line',

@@ -58,7 +58,10 @@ export function areaM2(corners: readonly LngLat[]): number {
 /** The box around a set of corners, or null for none. */
 export function boundsOfCorners(corners: readonly LngLat[]): [LngLat, LngLat] | null {
   if (corners.length === 0) return null;
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const [x, y] of corners) {
     minX = Math.min(minX, x);
     minY = Math.min(minY, y);
@@ -73,7 +76,10 @@ export function boundsOfCorners(corners: readonly LngLat[]): [LngLat, LngLat] | 
 
 /** "lon, lat" per line (the keyboard way to give an outline) → corners; null when a line is not a position. */
 export function parseCorners(text: string): LngLat[] | null {
-  const lines = text.split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  const lines = text
+    .split(/\r?\n/)
+    .map((l) => l.trim())
+    .filter(Boolean);
   const out: LngLat[] = [];
   for (const line of lines) {
     const m = /^(-?\d+(?:\.\d+)?)\s*[,;\s]\s*(-?\d+(?:\.\d+)?)$/.exec(line);

@@ -14,7 +14,15 @@ export function isoToFarmLocal(at: Date | number, timeZone: string): string {
 }
 
 export function farmDateTime(iso: string, timeZone: string, locale: string): string {
-  return new Intl.DateTimeFormat(locale, { timeZone, day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(new Date(iso));
+  return new Intl.DateTimeFormat(locale, {
+    timeZone,
+    day: 'numeric',
+    month: 'short',
+    year: 'numeric',
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+  }).format(new Date(iso));
 }
 
 export function farmDate(iso: string, timeZone: string, locale: string): string {

@@ -19,8 +19,8 @@ export interface LineChartProps {
   height?: number;
 }
 
-const W = 640;
-const PAD = { top: 12, right: 12, bottom: 28, left: 64 };
+const W = 560;
+const PAD = { top: 14, right: 14, bottom: 34, left: 78 };
 
 function niceTicks(min: number, max: number, count = 4): number[] {
   if (!(max > min)) return [min];
@@ -77,7 +77,7 @@ export function LineChart({ points, label, unit, format, formatDate, height = 22
         {yTicks.map((v) => (
           <g key={v}>
             <line x1={PAD.left} x2={W - PAD.right} y1={sy(v)} y2={sy(v)} stroke="#dde3e3" />
-            <text x={PAD.left - 8} y={sy(v) + 4} textAnchor="end" fontSize="13" fill="#46555c">
+            <text x={PAD.left - 8} y={sy(v) + 4} textAnchor="end" fontSize="19" fill="#46555c">
               {format(v)}
             </text>
           </g>
@@ -86,9 +86,9 @@ export function LineChart({ points, label, unit, format, formatDate, height = 22
           <text
             key={i}
             x={sx(v)}
-            y={H - 8}
+            y={H - 6}
             textAnchor={i === 0 ? 'start' : i === xTicks.length - 1 ? 'end' : 'middle'}
-            fontSize="13"
+            fontSize="19"
             fill="#46555c"
           >
             {formatDate(v)}
@@ -97,7 +97,7 @@ export function LineChart({ points, label, unit, format, formatDate, height = 22
         {band ? <path d={band} fill="rgba(134, 184, 186, 0.35)" stroke="none" /> : null}
         <path d={toPath(stepVertices((p) => p.y))} fill="none" stroke="#15525a" strokeWidth="2.5" strokeLinejoin="round" />
         {points.map((p, i) =>
-          p.measured ? <circle key={i} cx={sx(p.x)} cy={sy(p.y)} r="3.5" fill="#ffffff" stroke="#15525a" strokeWidth="2" /> : null,
+          p.measured ? <circle key={i} cx={sx(p.x)} cy={sy(p.y)} r="4.5" fill="#ffffff" stroke="#15525a" strokeWidth="2" /> : null,
         )}
       </svg>
       <figcaption className="text-sm text-muted">

@@ -30,7 +30,11 @@ function LabelCard({ farmId, unit, labelPageHref }: { farmId: string; unit: Unit
         {label.isPending ? (
           <Spinner label={t('setup.labels.loading')} />
         ) : label.data ? (
-          <img src={`data:image/svg+xml;charset=utf-8,${encodeURIComponent(label.data.svg)}`} alt={t('setup.labels.qrAlt', { code: unit.code })} className="size-32" />
+          <img
+            src={`data:image/svg+xml;charset=utf-8,${encodeURIComponent(label.data.svg)}`}
+            alt={t('setup.labels.qrAlt', { code: unit.code })}
+            className="size-32"
+          />
         ) : (
           <span className="text-sm text-act">{t('setup.labels.failed')}</span>
         )}
@@ -54,7 +58,12 @@ export function LabelsPanel({ farmId, labelPageHref }: { farmId: string; labelPa
   const { t } = useTranslation();
   const units = useQuery(setupQueries.units(farmId));
   if (units.isPending) return <Spinner label={t('setup.loading')} />;
-  if (units.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, units.error)}</Callout>;
+  if (units.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, units.error)}
+      </Callout>
+    );
   const list = [...units.data].sort((a, b) => a.walkOrder - b.walkOrder || a.code.localeCompare(b.code));
   return (
     <div className="flex flex-col gap-4" data-testid="labels-panel">

@@ -22,7 +22,15 @@ interface Row {
 }
 
 const ALL_DAYS = [1, 2, 3, 4, 5, 6, 7];
-const toRow = (e: OnCallEntryDto): Row => ({ key: e.id, userId: e.userId, name: e.name, role: e.role, startsLocal: e.startsLocal, endsLocal: e.endsLocal, weekdays: e.weekdays });
+const toRow = (e: OnCallEntryDto): Row => ({
+  key: e.id,
+  userId: e.userId,
+  name: e.name,
+  role: e.role,
+  startsLocal: e.startsLocal,
+  endsLocal: e.endsLocal,
+  weekdays: e.weekdays,
+});
 
 function weekdayName(d: number, locale: string, style: 'short' | 'long' = 'short') {
   // 2024-01-01 was a Monday (ISO weekday 1).
@@ -41,7 +49,12 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
   const [saved, setSaved] = useState(false);
 
   if (q.isPending) return <Spinner label={t('setup.loading')} />;
-  if (q.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, q.error)}</Callout>;
+  if (q.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, q.error)}
+      </Callout>
+    );
   const data = q.data;
   const setRow = (i: number, patch: Partial<Row>) => setRows((rs) => (rs ? rs.map((r, j) => (j === i ? { ...r, ...patch } : r)) : rs));
   const move = (i: number, d: -1 | 1) =>
@@ -56,12 +69,19 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
 
   const save = async () => {
     if (!rows) return;
-    const parsed = putOnCallRequestSchema.safeParse({ entries: rows.map(({ userId, startsLocal, endsLocal, weekdays }) => ({ userId, startsLocal, endsLocal, weekdays })) });
+    const parsed = putOnCallRequestSchema.safeParse({
+      entries: rows.map(({ userId, startsLocal, endsLocal, weekdays }) => ({ userId, startsLocal, endsLocal, weekdays })),
+    });
     if (!parsed.success) {
       const next: Record<string, string> = {};
       for (const issue of parsed.error.issues) {
         const [, i, f] = issue.path;
-        next[`${String(i)}.${String(f ?? 'endsLocal')}`] ??= f === 'weekdays' ? t('setup.oncall.pickDay') : issue.message.includes('differ') ? t('setup.oncall.differ') : t('setup.oncall.timeFormat');
+        next[`${String(i)}.${String(f ?? 'endsLocal')}`] ??=
+          f === 'weekdays'
+            ? t('setup.oncall.pickDay')
+            : issue.message.includes('differ')
+              ? t('setup.oncall.differ')
+              : t('setup.oncall.timeFormat');
       }
       return setErrors(next);
     }
@@ -100,15 +120,28 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
                 </span>
                 <span className="text-base tabular-nums">
                   {e.startsLocal}–{e.endsLocal}
-                  <span className="block text-sm text-muted">{e.weekdays.length === 7 ? t('setup.oncall.everyDay') : e.weekdays.map((d) => weekdayName(d, l)).join(' ')}</span>
+                  <span className="block text-sm text-muted">
+                    {e.weekdays.length === 7 ? t('setup.oncall.everyDay') : e.weekdays.map((d) => weekdayName(d, l)).join(' ')}
+                  </span>
                 </span>
-                {e.coversNow ? <span className="rounded-full bg-clear-soft px-2 py-0.5 text-sm font-bold text-clear-ink">{t('setup.oncall.coversNow')}</span> : null}
+                {e.coversNow ? (
+                  <span className="rounded-full bg-clear-soft px-2 py-0.5 text-sm font-bold text-clear-ink">
+                    {t('setup.oncall.coversNow')}
+                  </span>
+                ) : null}
               </li>
             ))}
           </ol>
           {data.entries.length === 0 ? <p className="text-base text-muted">{t('setup.oncall.empty')}</p> : null}
           <p className="text-sm text-muted">{t('setup.oncall.afterList')}</p>
-          <Button variant="secondary" className="self-start" onClick={() => { setRows(data.entries.map(toRow)); setSaved(false); }}>
+          <Button
+            variant="secondary"
+            className="self-start"
+            onClick={() => {
+              setRows(data.entries.map(toRow));
+              setSaved(false);
+            }}
+          >
             {t('setup.oncall.edit')}
           </Button>
         </>
@@ -120,18 +153,40 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
                 {i + 1}. {r.name} <span className="font-normal text-muted">({t(`roles.${r.role}`)})</span>
               </legend>
               <div className="grid grid-cols-2 gap-3 sm:grid-cols-[9rem_9rem_minmax(0,1fr)]">
-                <TextField label={t('setup.oncall.from')} value={r.startsLocal} inputMode="numeric" placeholder="00:00" onChange={(e) => setRow(i, { startsLocal: e.target.value })} error={errors[`${i}.startsLocal`]} />
-                <TextField label={t('setup.oncall.to')} value={r.endsLocal} inputMode="numeric" placeholder="24:00" onChange={(e) => setRow(i, { endsLocal: e.target.value })} error={errors[`${i}.endsLocal`]} />
+                <TextField
+                  label={t('setup.oncall.from')}
+                  value={r.startsLocal}
+                  inputMode="numeric"
+                  placeholder="00:00"
+                  onChange={(e) => setRow(i, { startsLocal: e.target.value })}
+                  error={errors[`${i}.startsLocal`]}
+                />
+                <TextField
+                  label={t('setup.oncall.to')}
+                  value={r.endsLocal}
+                  inputMode="numeric"
+                  placeholder="24:00"
+                  onChange={(e) => setRow(i, { endsLocal: e.target.value })}
+                  error={errors[`${i}.endsLocal`]}
+                />
                 <fieldset className="col-span-2 sm:col-span-1">
                   <legend className="mb-1.5 text-base font-bold">{t('setup.oncall.days')}</legend>
                   <div className="flex flex-wrap gap-1.5">
                     {ALL_DAYS.map((d) => (
-                      <label key={d} className={cx('flex min-h-10 items-center gap-1.5 rounded-lg border-2 px-2 text-sm font-bold', r.weekdays.includes(d) ? 'border-abyss-700 bg-abyss-50' : 'border-line')}>
+                      <label
+                        key={d}
+                        className={cx(
+                          'flex min-h-10 items-center gap-1.5 rounded-lg border-2 px-2 text-sm font-bold',
+                          r.weekdays.includes(d) ? 'border-abyss-700 bg-abyss-50' : 'border-line',
+                        )}
+                      >
                         <input
                           type="checkbox"
                           className="size-4 accent-abyss-700"
                           checked={r.weekdays.includes(d)}
-                          onChange={(e) => setRow(i, { weekdays: e.target.checked ? [...r.weekdays, d].sort() : r.weekdays.filter((x) => x !== d) })}
+                          onChange={(e) =>
+                            setRow(i, { weekdays: e.target.checked ? [...r.weekdays, d].sort() : r.weekdays.filter((x) => x !== d) })
+                          }
                           aria-label={weekdayName(d, l, 'long')}
                         />
                         <span aria-hidden="true">{weekdayName(d, l)}</span>
@@ -157,11 +212,26 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
           <Select
             label={t('setup.oncall.add')}
             hint={people.isError ? t('setup.oncall.noPeople') : undefined}
-            options={[{ value: '', label: t('setup.oncall.pickPerson') }, ...active.map((p) => ({ value: p.userId, label: `${p.name} (${t(`roles.${p.role}`)})` }))]}
+            options={[
+              { value: '', label: t('setup.oncall.pickPerson') },
+              ...active.map((p) => ({ value: p.userId, label: `${p.name} (${t(`roles.${p.role}`)})` })),
+            ]}
             value=""
             onChange={(e) => {
               const p = active.find((x) => x.userId === e.target.value);
-              if (p) setRows((rs) => [...(rs ?? []), { key: `new-${p.userId}-${Date.now()}`, userId: p.userId, name: p.name, role: p.role, startsLocal: '00:00', endsLocal: '24:00', weekdays: ALL_DAYS }]);
+              if (p)
+                setRows((rs) => [
+                  ...(rs ?? []),
+                  {
+                    key: `new-${p.userId}-${Date.now()}`,
+                    userId: p.userId,
+                    name: p.name,
+                    role: p.role,
+                    startsLocal: '00:00',
+                    endsLocal: '24:00',
+                    weekdays: ALL_DAYS,
+                  },
+                ]);
             }}
           />
           {put.error ? (
@@ -170,7 +240,13 @@ export function OnCallPanel({ farmId }: { farmId: string }) {
             </Callout>
           ) : null}
           <div className="flex flex-wrap justify-end gap-2">
-            <Button variant="ghost" onClick={() => { setRows(null); setErrors({}); }}>
+            <Button
+              variant="ghost"
+              onClick={() => {
+                setRows(null);
+                setErrors({});
+              }}
+            >
               {t('setup.cancel')}
             </Button>
             <Button variant="primary" loading={put.isPending} onClick={() => void save()}>

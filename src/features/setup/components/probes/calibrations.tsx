@@ -1,4 +1,9 @@
-import { createCalibrationRequestSchema, type CalibrationDto, type CreateCalibrationRequest, type ProbeDto } from '@shared/schemas/probes.schema';
+import {
+  createCalibrationRequestSchema,
+  type CalibrationDto,
+  type CreateCalibrationRequest,
+  type ProbeDto,
+} from '@shared/schemas/probes.schema';
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useTranslation } from 'react-i18next';
@@ -14,18 +19,39 @@ import { numberOrNull, textOrNull } from '../../lib/form';
 import { farmDate, farmLocalToIso } from '../../lib/time';
 
 type Kind = 'ph' | 'standard' | 'check';
-const kindOf = (q: string): Kind => (q === 'ph' ? 'ph' : q === 'conductivity' || q === 'specific_conductance' || q === 'salinity' ? 'standard' : 'check');
-const calibratable = ['ph', 'conductivity', 'specific_conductance', 'salinity', 'dissolved_oxygen', 'water_temperature', 'flow', 'water_level'];
+const kindOf = (q: string): Kind =>
+  q === 'ph' ? 'ph' : q === 'conductivity' || q === 'specific_conductance' || q === 'salinity' ? 'standard' : 'check';
+const calibratable = [
+  'ph',
+  'conductivity',
+  'specific_conductance',
+  'salinity',
+  'dissolved_oxygen',
+  'water_temperature',
+  'flow',
+  'water_level',
+];
 
 function summary(c: CalibrationDto, t: (k: string, o?: Record<string, unknown>) => string): string {
   const d = c.details;
-  if (typeof d.slopePct === 'number' && typeof d.offsetMv === 'number') return t('setup.cal.phSummary', { slope: d.slopePct, offset: d.offsetMv });
+  if (typeof d.slopePct === 'number' && typeof d.offsetMv === 'number')
+    return t('setup.cal.phSummary', { slope: d.slopePct, offset: d.offsetMv });
   if (typeof d.errorPct === 'number') return t('setup.cal.standardSummary', { error: d.errorPct });
   return c.method;
 }
 
 /** Calibration records of one probe, their due dates, and a form to record a new one (pH slope from two buffers). */
-export function Calibrations({ farmId, probe, timeZone, canEdit }: { farmId: string; probe: ProbeDto; timeZone: string; canEdit: boolean }) {
+export function Calibrations({
+  farmId,
+  probe,
+  timeZone,
+  canEdit,
+}: {
+  farmId: string;
+  probe: ProbeDto;
+  timeZone: string;
+  canEdit: boolean;
+}) {
   const { t, i18n } = useTranslation();
   const list = useQuery(setupQueries.calibrations(farmId, probe.id));
   const add = useAddCalibration(farmId, probe.id);
@@ -95,7 +121,10 @@ export function Calibrations({ farmId, probe, timeZone, canEdit }: { farmId: str
           {list.data.map((c) => {
             const overdue = Date.parse(c.nextDueAt) < now;
             return (
-              <li key={c.id} className="flex flex-wrap items-baseline gap-x-3 gap-y-0.5 border-b border-line py-1.5 text-base last:border-b-0">
+              <li
+                key={c.id}
+                className="flex flex-wrap items-baseline gap-x-3 gap-y-0.5 border-b border-line py-1.5 text-base last:border-b-0"
+              >
                 <span className="font-bold">{t(`setup.quantity.${c.quantity}`, { defaultValue: c.quantity })}</span>
                 <span>{farmDate(c.performedAt, timeZone, i18n.language)}</span>
                 <span className={c.passed ? 'text-clear-ink' : 'font-bold text-act'}>
@@ -114,8 +143,18 @@ export function Calibrations({ farmId, probe, timeZone, canEdit }: { farmId: str
         <p className="text-base text-muted">{t('setup.cal.none')}</p>
       )}
       {open ? (
-        <form onSubmit={(e) => void submit(e)} noValidate className="flex flex-col gap-3 rounded-xl border-2 border-line bg-paper p-3" data-testid="calibration-form">
-          <Select label={t('setup.cal.quantity')} options={options.map((q) => ({ value: q, label: t(`setup.quantity.${q}`) }))} value={quantity} onChange={(e) => setQuantity(e.target.value as typeof quantity)} />
+        <form
+          onSubmit={(e) => void submit(e)}
+          noValidate
+          className="flex flex-col gap-3 rounded-xl border-2 border-line bg-paper p-3"
+          data-testid="calibration-form"
+        >
+          <Select
+            label={t('setup.cal.quantity')}
+            options={options.map((q) => ({ value: q, label: t(`setup.quantity.${q}`) }))}
+            value={quantity}
+            onChange={(e) => setQuantity(e.target.value as typeof quantity)}
+          />
           {kind === 'ph' ? (
             <>
               <p className="text-sm text-muted">{t('setup.cal.phHint')}</p>
@@ -139,7 +178,13 @@ export function Calibrations({ farmId, probe, timeZone, canEdit }: { farmId: str
               {t('setup.cal.passedCheck')}
             </label>
           )}
-          <TextField label={t('setup.cal.performedAt')} hint={t('setup.cal.performedAtHint')} type="datetime-local" value={f.performedAt ?? ''} onChange={set('performedAt')} />
+          <TextField
+            label={t('setup.cal.performedAt')}
+            hint={t('setup.cal.performedAtHint')}
+            type="datetime-local"
+            value={f.performedAt ?? ''}
+            onChange={set('performedAt')}
+          />
           <TextField label={t('setup.cal.note')} value={f.note ?? ''} onChange={set('note')} />
           {add.error ? (
             <Callout tone="danger" live title={t('setup.cal.saveFailed')}>

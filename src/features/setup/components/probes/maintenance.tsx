@@ -25,13 +25,23 @@ export function Maintenance({ farmId, probe, timeZone, canEdit }: { farmId: stri
 
   const submit = async (e: React.FormEvent) => {
     e.preventDefault();
-    const parsed = createMaintenanceWindowRequestSchema.safeParse({ startsAt: farmLocalToIso(startsAt, timeZone), endsAt: farmLocalToIso(endsAt, timeZone), reason });
+    const parsed = createMaintenanceWindowRequestSchema.safeParse({
+      startsAt: farmLocalToIso(startsAt, timeZone),
+      endsAt: farmLocalToIso(endsAt, timeZone),
+      reason,
+    });
     if (!parsed.success) {
       const next: Record<string, string> = {};
       for (const issue of parsed.error.issues) {
         const k = String(issue.path[0] ?? 'endsAt');
         next[k] ??=
-          k === 'reason' ? t('setup.maint.reasonRequired') : issue.message.includes('31 days') ? t('setup.maint.tooLong') : k === 'endsAt' ? t('setup.maint.endAfterStart') : t('setup.maint.timeInvalid');
+          k === 'reason'
+            ? t('setup.maint.reasonRequired')
+            : issue.message.includes('31 days')
+              ? t('setup.maint.tooLong')
+              : k === 'endsAt'
+                ? t('setup.maint.endAfterStart')
+                : t('setup.maint.timeInvalid');
       }
       return setErrors(next);
     }
@@ -61,13 +71,22 @@ export function Maintenance({ farmId, probe, timeZone, canEdit }: { farmId: stri
         <ul className="flex flex-col gap-1">
           {list.data.map((w) => (
             <li key={w.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 border-b border-line py-1.5 text-base last:border-b-0">
-              {w.current ? <span className="rounded-full border-2 border-watch bg-watch-soft px-2 text-sm font-bold text-watch-ink">{t('setup.maint.now')}</span> : null}
+              {w.current ? (
+                <span className="rounded-full border-2 border-watch bg-watch-soft px-2 text-sm font-bold text-watch-ink">
+                  {t('setup.maint.now')}
+                </span>
+              ) : null}
               <span>
                 {farmDateTime(w.startsAt, timeZone, i18n.language)} – {farmDateTime(w.endsAt, timeZone, i18n.language)}
               </span>
               <span className="text-muted">{w.reason}</span>
               {canEdit && Date.parse(w.endsAt) > Date.now() ? (
-                <Button variant="ghost" className="ml-auto" loading={remove.isPending && remove.variables?.windowId === w.id} onClick={() => remove.mutate({ windowId: w.id })}>
+                <Button
+                  variant="ghost"
+                  className="ml-auto"
+                  loading={remove.isPending && remove.variables?.windowId === w.id}
+                  onClick={() => remove.mutate({ windowId: w.id })}
+                >
                   {w.current ? t('setup.maint.endNow') : t('setup.maint.cancel')}
                 </Button>
               ) : null}
@@ -80,11 +99,29 @@ export function Maintenance({ farmId, probe, timeZone, canEdit }: { farmId: stri
       {open ? (
         <form onSubmit={(e) => void submit(e)} noValidate className="flex flex-col gap-3 rounded-xl border-2 border-line bg-paper p-3">
           <div className="grid gap-3 sm:grid-cols-2">
-            <TextField label={t('setup.maint.starts')} type="datetime-local" value={startsAt} onChange={(e) => setStartsAt(e.target.value)} error={errors.startsAt} />
-            <TextField label={t('setup.maint.ends')} type="datetime-local" value={endsAt} onChange={(e) => setEndsAt(e.target.value)} error={errors.endsAt} />
+            <TextField
+              label={t('setup.maint.starts')}
+              type="datetime-local"
+              value={startsAt}
+              onChange={(e) => setStartsAt(e.target.value)}
+              error={errors.startsAt}
+            />
+            <TextField
+              label={t('setup.maint.ends')}
+              type="datetime-local"
+              value={endsAt}
+              onChange={(e) => setEndsAt(e.target.value)}
+              error={errors.endsAt}
+            />
           </div>
           <p className="text-sm text-muted">{t('setup.maint.farmTime', { tz: timeZone })}</p>
-          <TextField label={t('setup.maint.reason')} hint={t('setup.maint.reasonHint')} value={reason} onChange={(e) => setReason(e.target.value)} error={errors.reason} />
+          <TextField
+            label={t('setup.maint.reason')}
+            hint={t('setup.maint.reasonHint')}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            error={errors.reason}
+          />
           {add.error || remove.error ? (
             <Callout tone="danger" live title={t('setup.maint.saveFailed')}>
               {requestErrorText(t, add.error ?? remove.error)}

@@ -72,11 +72,19 @@ export function ProbeForm({ units, probe, onSubmit, pending, error, onCancel, su
     }
   });
   const failureText = error && !(isApiError(error) && Object.keys(error.fieldErrors).length > 0) ? requestErrorText(t, error) : null;
-  const quantityError = fieldErrorText(t, errors.quantities as Parameters<typeof fieldErrorText>[1], { too_small: t('setup.probe.pickQuantity') });
+  const quantityError = fieldErrorText(t, errors.quantities as Parameters<typeof fieldErrorText>[1], {
+    too_small: t('setup.probe.pickQuantity'),
+  });
 
   return (
     <form onSubmit={submit} noValidate className="flex flex-col gap-4" data-testid="probe-form">
-      <TextField label={t('setup.probe.label')} hint={t('setup.probe.labelHint')} autoComplete="off" error={fieldErrorText(t, errors.label)} {...register('label')} />
+      <TextField
+        label={t('setup.probe.label')}
+        hint={t('setup.probe.labelHint')}
+        autoComplete="off"
+        error={fieldErrorText(t, errors.label)}
+        {...register('label')}
+      />
       <Select
         label={t('setup.probe.unit')}
         options={[{ value: '', label: t('setup.probe.noUnit') }, ...units.map((u) => ({ value: u.id, label: `${u.code} — ${u.name}` }))]}
@@ -105,7 +113,11 @@ export function ProbeForm({ units, probe, onSubmit, pending, error, onCancel, su
           label={t('setup.probe.interval')}
           hint={t('setup.probe.intervalHint')}
           unit="s"
-          error={fieldErrorText(t, errors.intervalSeconds, { too_small: t('setup.probe.intervalRange'), too_big: t('setup.probe.intervalRange'), invalid_type: t('setup.probe.intervalRange') })}
+          error={fieldErrorText(t, errors.intervalSeconds, {
+            too_small: t('setup.probe.intervalRange'),
+            too_big: t('setup.probe.intervalRange'),
+            invalid_type: t('setup.probe.intervalRange'),
+          })}
           {...register('intervalSeconds')}
         />
         <TextField label={t('setup.probe.model')} autoComplete="off" error={fieldErrorText(t, errors.model)} {...register('model')} />

@@ -48,7 +48,18 @@ const probe = {
   batteryPct: null,
   rssiDbm: null,
   createdAt: now,
-  health: { probeId, probeKey: 'hb-p7-sonde', unitId, state: 'silent', lastSeenAt: null, lastReadingAt: null, batteryPct: null, rssiDbm: null, rejects: [], findings: [] },
+  health: {
+    probeId,
+    probeKey: 'hb-p7-sonde',
+    unitId,
+    state: 'silent',
+    lastSeenAt: null,
+    lastReadingAt: null,
+    batteryPct: null,
+    rssiDbm: null,
+    rejects: [],
+    findings: [],
+  },
 };
 
 const credential = (secret: string) => ({
@@ -85,7 +96,13 @@ describe('ProbesPanel: the probe secret', () => {
     expect(dialog.textContent).toContain('You will see this secret only now');
     expect(within(dialog).getByRole('button', { name: 'Copy the Secret' })).toBeTruthy();
     const sent = api.calls.find((c) => c.method === 'POST' && c.url.endsWith('/probes'));
-    expect(sent?.body).toEqual({ label: 'P7 sonde', unitId, quantities: ['water_temperature', 'dissolved_oxygen', 'ph'], intervalSeconds: 60, model: null });
+    expect(sent?.body).toEqual({
+      label: 'P7 sonde',
+      unitId,
+      quantities: ['water_temperature', 'dissolved_oxygen', 'ph'],
+      intervalSeconds: 60,
+      model: null,
+    });
 
     // "Done" waits until the secret is confirmed as stored in the probe.
     const done = within(dialog).getByRole('button', { name: 'Done' }) as HTMLButtonElement;
@@ -98,8 +115,14 @@ describe('ProbesPanel: the probe secret', () => {
     // The probe is listed without it, and nothing in the query or mutation caches still holds it.
     expect((await screen.findByTestId('probe-card')).textContent).toContain('P7 sonde');
     const cached = JSON.stringify([
-      queryClient.getQueryCache().getAll().map((q) => q.state.data),
-      queryClient.getMutationCache().getAll().map((m) => m.state.data),
+      queryClient
+        .getQueryCache()
+        .getAll()
+        .map((q) => q.state.data),
+      queryClient
+        .getMutationCache()
+        .getAll()
+        .map((m) => m.state.data),
     ]);
     expect(cached).not.toContain(SECRET);
   });

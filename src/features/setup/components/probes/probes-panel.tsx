@@ -87,7 +87,11 @@ function ProbeCard({
   const pending = rotate.isPending || deactivate.isPending;
 
   return (
-    <li className="gw-card flex flex-col gap-3 p-4" data-testid="probe-card" data-probe-key={probe.probeKey}>
+    <li
+      className={cx('gw-card flex flex-col gap-3 p-4', expanded && 'lg:col-span-2')}
+      data-testid="probe-card"
+      data-probe-key={probe.probeKey}
+    >
       <div className="flex flex-wrap items-start gap-3">
         <div className="min-w-0 flex-1">
           <h3 className="text-lg font-bold leading-tight">{probe.label}</h3>

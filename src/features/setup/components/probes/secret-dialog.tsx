@@ -60,7 +60,11 @@ export function SecretDialog({ credential, reason, onClose }: SecretDialogProps)
     <Dialog
       open={credential !== null}
       onClose={close}
-      title={credential ? t(reason === 'created' ? 'setup.secret.titleCreated' : 'setup.secret.titleRotated', { label: credential.probe.label }) : ''}
+      title={
+        credential
+          ? t(reason === 'created' ? 'setup.secret.titleCreated' : 'setup.secret.titleRotated', { label: credential.probe.label })
+          : ''
+      }
       footer={
         <Button variant="primary" onClick={close} disabled={!stored} icon={<Icon name="check" />}>
           {t('setup.secret.done')}
@@ -77,7 +81,12 @@ export function SecretDialog({ credential, reason, onClose }: SecretDialogProps)
           <CopyRow label={t('setup.secret.topic')} value={credential.credential.topic} testId="secret-topic" />
           <p className="text-base text-muted">{t('setup.secret.howTo')}</p>
           <label className="flex items-start gap-3 rounded-xl border-2 border-line px-3 py-3 text-base">
-            <input type="checkbox" className="mt-1 size-5 accent-abyss-700" checked={stored} onChange={(e) => setStored(e.target.checked)} />
+            <input
+              type="checkbox"
+              className="mt-1 size-5 accent-abyss-700"
+              checked={stored}
+              onChange={(e) => setStored(e.target.checked)}
+            />
             <span>{t('setup.secret.stored')}</span>
           </label>
         </div>

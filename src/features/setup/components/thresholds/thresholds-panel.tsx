@@ -18,6 +18,7 @@ import { Spinner } from '@/components/ui/spinner';
 import { requestErrorText } from '@/lib/form-errors';
 import { useUpdateThresholdProfile } from '../../api/setup-mutations';
 import { setupQueries } from '../../api/setup-queries';
+import { TextAreaField } from '../text-area-field';
 import { numberOrNull, numberText } from '../../lib/form';
 
 interface RuleRow {
@@ -185,7 +186,7 @@ function ProfileCard({
           {rows.map((r, i) => (
             <fieldset
               key={r.metric}
-              className="grid gap-3 rounded-xl border-2 border-line bg-paper p-3 sm:grid-cols-[minmax(0,1fr)_8rem_8rem_10rem]"
+              className="grid grid-cols-2 gap-3 rounded-xl border-2 border-line bg-paper p-3 sm:grid-cols-[8rem_8rem_12rem_minmax(0,1fr)]"
             >
               <legend className="px-1 text-base font-bold">
                 {t(`setup.metric.${r.metric}`)}{' '}
@@ -193,14 +194,16 @@ function ProfileCard({
                   ({t(metricDirection[r.metric] === 'upper' ? 'setup.thr.upper' : 'setup.thr.lower')})
                 </span>
               </legend>
-              <TextField
-                containerClassName="sm:col-span-4"
-                label={t('setup.thr.source')}
-                hint={t('setup.thr.sourceHint')}
-                value={r.source}
-                onChange={(e) => setRow(i, { source: e.target.value })}
-                error={errors[`${i}.source`]}
-              />
+              <div className="col-span-2 sm:col-span-4">
+                <TextAreaField
+                  label={t('setup.thr.source')}
+                  hint={t('setup.thr.sourceHint')}
+                  rows={2}
+                  value={r.source}
+                  onChange={(e) => setRow(i, { source: e.target.value })}
+                  error={errors[`${i}.source`]}
+                />
+              </div>
               <NumberField
                 label={t('setup.thr.watch')}
                 value={r.watch}
@@ -220,7 +223,7 @@ function ProfileCard({
                 onChange={(e) => setRow(i, { basis: e.target.value })}
                 error={errors[`${i}.basis`]}
               />
-              <div className="flex items-end">
+              <div className="flex items-end justify-end">
                 <Button variant="ghost" onClick={() => setRows((rs) => (rs ? rs.filter((_, j) => j !== i) : rs))}>
                   {t('setup.thr.remove')}
                 </Button>

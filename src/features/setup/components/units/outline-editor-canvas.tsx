@@ -175,7 +175,12 @@ export default function OutlineEditorCanvas(props: OutlineEditorCanvasProps) {
       type: 'FeatureCollection',
       features: units
         .filter((u) => u.outline)
-        .map((u) => ({ type: 'Feature' as const, id: u.id, properties: { id: u.id, code: u.code, selected: u.id === selectedId }, geometry: u.outline! })),
+        .map((u) => ({
+          type: 'Feature' as const,
+          id: u.id,
+          properties: { id: u.id, code: u.code, selected: u.id === selectedId },
+          geometry: u.outline!,
+        })),
     });
     // Unit codes as HTML labels (no symbol layers: the style needs no glyphs from anywhere).
     const wanted = new Set<string>();
@@ -228,11 +233,23 @@ export default function OutlineEditorCanvas(props: OutlineEditorCanvasProps) {
     setData(map, 'vertices', {
       type: 'FeatureCollection',
       features: editable
-        ? corners.map((c, i) => ({ type: 'Feature' as const, properties: { index: i, first: drawing && i === 0 }, geometry: { type: 'Point' as const, coordinates: [c[0], c[1]] } }))
+        ? corners.map((c, i) => ({
+            type: 'Feature' as const,
+            properties: { index: i, first: drawing && i === 0 },
+            geometry: { type: 'Point' as const, coordinates: [c[0], c[1]] },
+          }))
         : [],
     });
     map.getCanvas().style.cursor = drawing ? 'crosshair' : '';
   }, [ready, corners, drawing, editable]);
 
-  return <div ref={container} className={className} data-testid="outline-editor" data-ready={ready ? 'true' : 'false'} data-corners={corners.length} />;
+  return (
+    <div
+      ref={container}
+      className={className}
+      data-testid="outline-editor"
+      data-ready={ready ? 'true' : 'false'}
+      data-corners={corners.length}
+    />
+  );
 }

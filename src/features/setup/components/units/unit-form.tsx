@@ -1,4 +1,11 @@
-import { createFlowRequestSchema, createUnitRequestSchema, unitKinds, unitStates, waterTypes, type UnitDto } from '@shared/schemas/units.schema';
+import {
+  createFlowRequestSchema,
+  createUnitRequestSchema,
+  unitKinds,
+  unitStates,
+  waterTypes,
+  type UnitDto,
+} from '@shared/schemas/units.schema';
 import type { ThresholdProfileDto } from '@shared/schemas/thresholds.schema';
 import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -86,7 +93,17 @@ export interface UnitFormProps {
 }
 
 /** Create or change a unit: what it is, its water, what lives in it, whether its biofilter is still cycling, how often it is tested. */
-export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm, profiles, speciesSuggestions, onSaved, onCancel }: UnitFormProps) {
+export function UnitForm({
+  farmId,
+  unit,
+  outline,
+  outlineChanged,
+  designFlowLpm,
+  profiles,
+  speciesSuggestions,
+  onSaved,
+  onCancel,
+}: UnitFormProps) {
   const { t } = useTranslation();
   const create = useCreateUnit(farmId);
   const update = useUpdateUnit(farmId);
@@ -94,7 +111,13 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
   const [designFlow, setDesignFlow] = useState(numberText(designFlowLpm));
   const [flowError, setFlowError] = useState<string | null>(null);
   const [nothing, setNothing] = useState(false);
-  const resolver = useMemo(() => schemaResolver<UnitFormValues, UnitFormBody>(unitFormSchema, toUnitBody, (p) => (typeof p[0] === 'string' ? (bodyField[p[0]] ?? p[0]) : null)), []);
+  const resolver = useMemo(
+    () =>
+      schemaResolver<UnitFormValues, UnitFormBody>(unitFormSchema, toUnitBody, (p) =>
+        typeof p[0] === 'string' ? (bodyField[p[0]] ?? p[0]) : null,
+      ),
+    [],
+  );
   const {
     register,
     handleSubmit,
@@ -141,12 +164,25 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
       }
       onSaved(saved);
     } catch (e) {
-      applyServerFieldErrors(e, setError, ['code', 'name', 'kind', 'volumeM3', 'areaM2', 'defaultSalinityPpt', 'species', 'lifeStage', 'state', 'testFrequencyDays', 'thresholdProfileId']);
+      applyServerFieldErrors(e, setError, [
+        'code',
+        'name',
+        'kind',
+        'volumeM3',
+        'areaM2',
+        'defaultSalinityPpt',
+        'species',
+        'lifeStage',
+        'state',
+        'testFrequencyDays',
+        'thresholdProfileId',
+      ]);
     }
   });
 
   const failure = mutation.error ?? addFlow.error;
-  const failureText = failure && !(isApiError(failure) && Object.keys(failure.fieldErrors).length > 0) ? requestErrorText(t, failure) : null;
+  const failureText =
+    failure && !(isApiError(failure) && Object.keys(failure.fieldErrors).length > 0) ? requestErrorText(t, failure) : null;
   const err = (field: keyof UnitFormValues, overrides: Partial<Record<string, string>> = {}) => fieldErrorText(t, errors[field], overrides);
   const listId = `species-${unit?.id ?? 'new'}`;
 
@@ -163,7 +199,12 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
         <TextField label={t('setup.unit.name')} autoComplete="off" error={err('name')} {...register('name')} />
       </div>
       <div className="grid gap-4 @md:grid-cols-2">
-        <Select label={t('setup.unit.kind')} options={unitKinds.map((k) => ({ value: k, label: t(`setup.kind.${k}`) }))} error={err('kind')} {...register('kind')} />
+        <Select
+          label={t('setup.unit.kind')}
+          options={unitKinds.map((k) => ({ value: k, label: t(`setup.kind.${k}`) }))}
+          error={err('kind')}
+          {...register('kind')}
+        />
         <Select
           label={t('setup.unit.state')}
           hint={t(`setup.unit.stateHint.${state}`, { defaultValue: '' })}
@@ -173,7 +214,12 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
         />
       </div>
       <div className="grid gap-4 @md:grid-cols-2">
-        <Select label={t('setup.unit.waterType')} options={waterTypes.map((w) => ({ value: w, label: t(`setup.water.${w}`) }))} error={err('waterType')} {...register('waterType')} />
+        <Select
+          label={t('setup.unit.waterType')}
+          options={waterTypes.map((w) => ({ value: w, label: t(`setup.water.${w}`) }))}
+          error={err('waterType')}
+          {...register('waterType')}
+        />
         <NumberField
           label={t('setup.unit.salinity')}
           hint={waterType === 'fresh' ? t('setup.unit.salinityFreshHint') : t('setup.unit.salinityHint')}
@@ -183,8 +229,19 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
         />
       </div>
       <div className="grid gap-4 @md:grid-cols-2">
-        <NumberField label={t('setup.unit.volume')} unit="m³" error={err('volumeM3', { too_small: t('setup.unit.positive') })} {...register('volumeM3')} />
-        <NumberField label={t('setup.unit.area')} hint={t('setup.unit.areaHint')} unit="m²" error={err('areaM2', { too_small: t('setup.unit.positive') })} {...register('areaM2')} />
+        <NumberField
+          label={t('setup.unit.volume')}
+          unit="m³"
+          error={err('volumeM3', { too_small: t('setup.unit.positive') })}
+          {...register('volumeM3')}
+        />
+        <NumberField
+          label={t('setup.unit.area')}
+          hint={t('setup.unit.areaHint')}
+          unit="m²"
+          error={err('areaM2', { too_small: t('setup.unit.positive') })}
+          {...register('areaM2')}
+        />
       </div>
       {flowKind ? (
         <NumberField
@@ -197,7 +254,14 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
         />
       ) : null}
       <div className="grid gap-4 @md:grid-cols-2">
-        <TextField label={t('setup.unit.species')} hint={t('setup.unit.speciesHint')} list={listId} autoComplete="off" error={err('species')} {...register('species')} />
+        <TextField
+          label={t('setup.unit.species')}
+          hint={t('setup.unit.speciesHint')}
+          list={listId}
+          autoComplete="off"
+          error={err('species')}
+          {...register('species')}
+        />
         <TextField label={t('setup.unit.lifeStage')} autoComplete="off" error={err('lifeStage')} {...register('lifeStage')} />
         <datalist id={listId}>
           {speciesSuggestions.map((s) => (
@@ -210,14 +274,22 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
           label={t('setup.unit.testEvery')}
           hint={t('setup.unit.testEveryHint')}
           unit={t('setup.unit.days')}
-          error={err('testFrequencyDays', { invalid_type: t('setup.unit.wholeDays'), too_small: t('setup.unit.wholeDays'), too_big: t('setup.unit.wholeDays') })}
+          error={err('testFrequencyDays', {
+            invalid_type: t('setup.unit.wholeDays'),
+            too_small: t('setup.unit.wholeDays'),
+            too_big: t('setup.unit.wholeDays'),
+          })}
           {...register('testFrequencyDays')}
         />
         <NumberField
           label={t('setup.unit.protein')}
           hint={t('setup.unit.proteinHint')}
           unit="%"
-          error={err('feedProteinPct', { too_small: t('setup.unit.proteinRange'), too_big: t('setup.unit.proteinRange'), invalid_type: t('setup.unit.proteinRange') })}
+          error={err('feedProteinPct', {
+            too_small: t('setup.unit.proteinRange'),
+            too_big: t('setup.unit.proteinRange'),
+            invalid_type: t('setup.unit.proteinRange'),
+          })}
           {...register('feedProteinPct')}
         />
       </div>
@@ -229,7 +301,11 @@ export function UnitForm({ farmId, unit, outline, outlineChanged, designFlowLpm,
         {...register('thresholdProfileId')}
       />
       {!unit && !outline ? <Callout tone="info">{t('setup.unit.noOutline')}</Callout> : null}
-      {nothing ? <Callout tone="info" live>{t('setup.unit.nothingChanged')}</Callout> : null}
+      {nothing ? (
+        <Callout tone="info" live>
+          {t('setup.unit.nothingChanged')}
+        </Callout>
+      ) : null}
       {failureText ? (
         <Callout tone="danger" live title={t('setup.unit.saveFailed')}>
           {failureText}

@@ -38,15 +38,29 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
   const [typed, setTyped] = useState('');
   const [typedError, setTypedError] = useState<string | null>(null);
 
-  const list = useMemo(() => [...(units.data ?? [])].sort((a, b) => a.walkOrder - b.walkOrder || a.code.localeCompare(b.code)), [units.data]);
+  const list = useMemo(
+    () => [...(units.data ?? [])].sort((a, b) => a.walkOrder - b.walkOrder || a.code.localeCompare(b.code)),
+    [units.data],
+  );
   const selected = list.find((u) => u.id === selectedId) ?? null;
-  const flows = useQuery({ ...setupQueries.flows(farmId, selectedId ?? ''), enabled: !!selected && (selected.kind === 'raceway' || selected.kind === 'tank') });
+  const flows = useQuery({
+    ...setupQueries.flows(farmId, selectedId ?? ''),
+    enabled: !!selected && (selected.kind === 'raceway' || selected.kind === 'tank'),
+  });
   const designFlow = flows.data?.items.find((f) => f.source === 'design')?.flowLpm ?? null;
   const species = useMemo(
-    () => [...new Set([...(units.data ?? []).map((u) => u.species), ...(thresholds.data?.profiles ?? []).map((p) => p.species)].filter((s): s is string => !!s))].sort(),
+    () =>
+      [
+        ...new Set(
+          [...(units.data ?? []).map((u) => u.species), ...(thresholds.data?.profiles ?? []).map((p) => p.species)].filter(
+            (s): s is string => !!s,
+          ),
+        ),
+      ].sort(),
     [units.data, thresholds.data],
   );
-  const center: LngLat | null = farm.data?.longitude != null && farm.data.latitude != null ? [farm.data.longitude, farm.data.latitude] : null;
+  const center: LngLat | null =
+    farm.data?.longitude != null && farm.data.latitude != null ? [farm.data.longitude, farm.data.latitude] : null;
 
   const pick = (unit: UnitDto) => {
     if (mode === 'drawing') return;
@@ -85,7 +99,12 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
   const area = corners.length >= 3 ? areaM2(corners) : 0;
 
   if (units.isPending) return <Spinner label={t('setup.loading')} />;
-  if (units.isError) return <Callout tone="danger" title={t('setup.loadFailed')}>{requestErrorText(t, units.error)}</Callout>;
+  if (units.isError)
+    return (
+      <Callout tone="danger" title={t('setup.loadFailed')}>
+        {requestErrorText(t, units.error)}
+      </Callout>
+    );
 
   return (
     <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_23rem]" data-testid="units-panel">
@@ -101,7 +120,13 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
           ) : null}
         </div>
         <div className="relative overflow-hidden rounded-2xl border-2 border-line bg-card">
-          <Suspense fallback={<div className="grid h-[26rem] place-items-center lg:h-[36rem]"><Spinner label={t('setup.map.loading')} /></div>}>
+          <Suspense
+            fallback={
+              <div className="grid h-[26rem] place-items-center lg:h-[36rem]">
+                <Spinner label={t('setup.map.loading')} />
+              </div>
+            }
+          >
             <OutlineEditorCanvas
               units={list}
               selectedId={selectedId}
@@ -122,8 +147,14 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
             />
           </Suspense>
           {mode === 'drawing' ? (
-            <div className="absolute inset-x-2 top-2 rounded-xl bg-abyss-900/90 px-3 py-2 text-base text-white sm:right-auto sm:max-w-md" role="status" data-testid="draw-help">
-              {corners.length < 3 ? t('setup.map.helpStart', { count: corners.length }) : t('setup.map.helpFinish', { count: corners.length })}
+            <div
+              className="absolute left-2 right-14 top-2 rounded-xl bg-abyss-900/90 px-3 py-2 text-base text-white sm:right-auto sm:max-w-md"
+              role="status"
+              data-testid="draw-help"
+            >
+              {corners.length < 3
+                ? t('setup.map.helpStart', { count: corners.length })
+                : t('setup.map.helpFinish', { count: corners.length })}
             </div>
           ) : null}
         </div>
@@ -136,6 +167,9 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
                 </Button>
                 <Button variant="secondary" onClick={() => setCorners((c) => c.slice(0, -1))} disabled={corners.length === 0}>
                   {t('setup.map.undo')}
+                </Button>
+                <Button variant="ghost" onClick={close}>
+                  {t('setup.cancel')}
                 </Button>
               </>
             ) : canEdit ? (
@@ -185,7 +219,9 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
       <section className="flex flex-col gap-3" aria-labelledby="setup-units-title">
         {formOpen && canEdit ? (
           <div className="gw-card p-4" data-testid="unit-editor">
-            <h2 className="mb-3 text-xl font-bold">{selected ? t('setup.unit.editTitle', { code: selected.code }) : t('setup.unit.newTitle')}</h2>
+            <h2 className="mb-3 text-xl font-bold">
+              {selected ? t('setup.unit.editTitle', { code: selected.code }) : t('setup.unit.newTitle')}
+            </h2>
             {mode === 'drawing' ? <p className="mb-3 text-base text-muted">{t('setup.unit.drawFirst')}</p> : null}
             {selected && (selected.kind === 'raceway' || selected.kind === 'tank') && flows.isPending ? (
               <Spinner label={t('setup.loading')} />
@@ -212,9 +248,7 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
             )}
           </div>
         ) : null}
-        {saved ? (
-          <Callout tone="success" live title={t('setup.unit.saved', { code: saved })} />
-        ) : null}
+        {saved ? <Callout tone="success" live title={t('setup.unit.saved', { code: saved })} /> : null}
         <h2 id="setup-units-title" className="text-xl font-bold">
           {t('setup.units.title', { count: list.length })}
         </h2>
@@ -238,7 +272,12 @@ export function UnitsPanel({ farmId, canEdit }: { farmId: string; canEdit: boole
                   </span>
                 </span>
                 {u.state !== 'active' ? (
-                  <span className={cx('rounded-full border-2 px-2 py-0.5 text-sm font-bold', u.state === 'cycling' ? 'border-watch bg-watch-soft text-watch-ink' : 'border-line bg-paper text-muted')}>
+                  <span
+                    className={cx(
+                      'rounded-full border-2 px-2 py-0.5 text-sm font-bold',
+                      u.state === 'cycling' ? 'border-watch bg-watch-soft text-watch-ink' : 'border-line bg-paper text-muted',
+                    )}
+                  >
                     {t(`setup.state.${u.state}`)}
                   </span>
                 ) : null}
