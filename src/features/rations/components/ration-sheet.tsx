@@ -9,7 +9,7 @@ import { formatDay, fmtKg } from '../lib/format';
 const printCss = `
 @media print {
   @page { margin: 12mm; }
-  html, body { background: #fff !important; }
+  html, body, .bg-paper { background: #fff !important; }
   header, nav, footer, .gw-no-print { display: none !important; }
   main { padding: 0 !important; margin: 0 !important; max-width: none !important; }
   .gw-ration-print { border: 0 !important; box-shadow: none !important; padding: 0 !important; }
@@ -52,7 +52,7 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
               <th scope="col" className={cell}>
                 {t('rations.sheet.unit')}
               </th>
-              <th scope="col" className={`${cell} text-right`}>
+              <th scope="col" className={`${cell} w-36 text-right`}>
                 {t('rations.sheet.toFeed')}
               </th>
               <th scope="col" className={cell}>
@@ -90,7 +90,7 @@ export function RationSheet({ sheet, farmName }: RationSheetProps) {
                     ) : r.toFeedKg === 0 ? (
                       <span className="text-xl font-bold">{t('rations.sheet.noFeed')}</span>
                     ) : (
-                      <span className="text-xl font-bold">{fmtKg(r.toFeedKg, locale)} kg</span>
+                      <span className="whitespace-nowrap text-xl font-bold">{fmtKg(r.toFeedKg, locale)} kg</span>
                     )}
                   </td>
                   <td className={cell}>
