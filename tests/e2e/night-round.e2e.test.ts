@@ -34,7 +34,8 @@ describe('the night round in a real browser', () => {
     await page.goto(`${baseUrl}/farms/${farmId}/night-round`, { waitUntil: 'load' });
     await page.getByTestId('night-round').waitFor();
 
-    // Ponds only, in walking order (P1…P6, then the shrimp ponds).
+    // Ponds only, in walking order (P1…P6, then the shrimp ponds), once the units have loaded.
+    await page.locator('[data-night-unit]').first().waitFor();
     const codes = await page
       .locator('[data-night-unit]')
       .evaluateAll((els) => els.map((el) => (el as unknown as { getAttribute(n: string): string | null }).getAttribute('data-night-unit')));
