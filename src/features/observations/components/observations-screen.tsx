@@ -15,7 +15,7 @@ import { cx } from '@/components/ui/cx';
 import { NumberField, parseDecimal, Select, TextField } from '@/components/ui/field';
 import { Spinner } from '@/components/ui/spinner';
 import { observationQueries } from '../api/observations';
-import { ChoiceGroup } from './choice-group';
+import { ChoiceGroup } from '@/components/ui/choice-group';
 import { PhotoPicker } from './photo-picker';
 
 type Kind = (typeof observationKinds)[number];

@@ -38,7 +38,7 @@ import { orderUnits } from '../lib/unit-order';
 import { photoForOutbox } from '../lib/photo';
 import { newClientId } from '../lib/uuid';
 import { AmmoniaReadout, type ProfileRules } from './ammonia-readout';
-import { ChoiceGroup } from './choice-group';
+import { ChoiceGroup } from '@/components/ui/choice-group';
 import { OutboxList } from './outbox-list';
 import { PhotoPicker } from './photo-picker';
 import { InstantValues } from './provenance';

@@ -13,7 +13,7 @@ import { Spinner } from '@/components/ui/spinner';
 import { isApiError } from '@/lib/api-client';
 import { requestErrorText } from '@/lib/form-errors';
 import { treatmentQueries, useLogTreatment } from '../api/treatments';
-import { ChoiceGroup } from './choice-group';
+import { ChoiceGroup } from '@/components/ui/choice-group';
 
 type Product = (typeof treatmentProducts)[number];
 type Treatment = z.infer<typeof treatmentSchema>;

@@ -1,5 +1,5 @@
 import { useId, type ReactNode } from 'react';
-import { cx } from '@/components/ui/cx';
+import { cx } from './cx';
 
 export interface Choice<V extends string> {
   value: V;
