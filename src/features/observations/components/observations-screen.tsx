@@ -16,7 +16,7 @@ import { NumberField, parseDecimal, Select, TextField } from '@/components/ui/fi
 import { Spinner } from '@/components/ui/spinner';
 import { observationQueries } from '../api/observations';
 import { ChoiceGroup } from '@/components/ui/choice-group';
-import { PhotoPicker } from './photo-picker';
+import { PhotoPicker } from '@/components/ui/photo-picker';
 
 type Kind = (typeof observationKinds)[number];
 

@@ -40,7 +40,7 @@ import { newClientId } from '../lib/uuid';
 import { AmmoniaReadout, type ProfileRules } from './ammonia-readout';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { OutboxList } from './outbox-list';
-import { PhotoPicker } from './photo-picker';
+import { PhotoPicker } from '@/components/ui/photo-picker';
 import { InstantValues } from './provenance';
 import { TestResult, type SavedTest } from './test-result';
 import { UnitPicker } from './unit-picker';

@@ -9,7 +9,7 @@ import { isApiError } from '@/lib/api-client';
 import { applyServerFieldErrors, fieldErrorText, requestErrorText } from '@/lib/form-errors';
 import { useOverrideRecommendation } from '../api/ration-mutations';
 import { fmtKg } from '../lib/format';
-import { TextAreaField } from './text-area-field';
+import { TextAreaField } from '@/components/ui/text-area-field';
 
 export interface OverrideTarget {
   recommendationId: string;

@@ -18,7 +18,7 @@ import { Spinner } from '@/components/ui/spinner';
 import { requestErrorText } from '@/lib/form-errors';
 import { useUpdateThresholdProfile } from '../../api/setup-mutations';
 import { setupQueries } from '../../api/setup-queries';
-import { TextAreaField } from '../text-area-field';
+import { TextAreaField } from '@/components/ui/text-area-field';
 import { numberOrNull, numberText } from '../../lib/form';
 
 interface RuleRow {

@@ -10,7 +10,7 @@ import { Spinner } from '@/components/ui/spinner';
 import { requestErrorText } from '@/lib/form-errors';
 import { setupQueries } from '../../api/setup-queries';
 import { areaM2, cornersOf, formatCorners, parseCorners, polygonFrom, type LngLat } from '../../lib/polygon';
-import { TextAreaField } from '../text-area-field';
+import { TextAreaField } from '@/components/ui/text-area-field';
 import { UnitForm } from './unit-form';
 
 const OutlineEditorCanvas = lazy(() => import('./outline-editor-canvas'));
