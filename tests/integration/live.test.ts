@@ -2,21 +2,16 @@ import { randomUUID } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CultureUnit, Farm, Membership, OnCallEntry, Probe, ThresholdProfile, User, type FarmSettings } from '../../server/db/entities';
-import { thresholdProfiles } from '../../server/db/seed/harrow-bend';
 import { createApp } from '../../server/app';
 import { createServices } from '../../server/container';
 import { createLogger } from '../../server/lib/logger';
 import { createSmtpMailer } from '../../server/lib/mailer';
 import { createRedis } from '../../server/lib/redis';
-import { AuthService } from '../../server/modules/auth/auth.service';
 import { HealthService } from '../../server/modules/health/health.service';
-import { signedIn } from '../factories/session';
 import { startTestApp, type TestApp } from '../setup/test-app';
+import { createTestFarm, TEST_FARM_PASSWORD, type TestFarmOptions } from '../factories/test-farm';
 
 let t: TestApp;
-const PASSWORD = 'live-test-passphrase';
-let passwordHash = '';
 
 // A second "server process": its own Redis connections, LiveService and Express app on its own port,
 // sharing the database and the queue prefix with the first.
@@ -49,7 +44,6 @@ async function startSecondServer() {
 
 beforeAll(async () => {
   t = await startTestApp({ listen: true });
-  passwordHash = await AuthService.hashPassword(PASSWORD);
   second = await startSecondServer();
 });
 afterAll(async () => {
@@ -60,71 +54,7 @@ afterAll(async () => {
 
 // --- a farm of the test's own: people, profiles (the seeded defaults), units, probes ---
 
-async function makeFarm(tag: string, opts: { timeZone?: string; settings?: Partial<FarmSettings> } = {}) {
-  const ds = t.ds;
-  const id = randomUUID().slice(0, 8);
-  const farm = await ds.getRepository(Farm).save(
-    ds.getRepository(Farm).create({ slug: `${tag}-${id}`, name: `Test farm ${tag} ${id}`, timeZone: opts.timeZone ?? 'America/Chicago', settings: opts.settings ?? {}, displayPrefs: {} }),
-  );
-  const profiles = new Map<string, string>();
-  for (const p of thresholdProfiles) {
-    const saved = await ds.getRepository(ThresholdProfile).save(ds.getRepository(ThresholdProfile).create({ farmId: farm.id, name: p.name, species: p.species, lifeStage: null, rules: p.rules }));
-    profiles.set(p.species, saved.id);
-  }
-  const person = async (role: 'hand' | 'manager' | 'planner', label: string) => {
-    const email = `${label}-${id}@gillwise-tests.example`;
-    const user = await ds.getRepository(User).save(ds.getRepository(User).create({ email, name: `${label} ${id}`, passwordHash, isAdmin: false, locale: 'en', prefs: {} }));
-    await ds.getRepository(Membership).save(ds.getRepository(Membership).create({ farmId: farm.id, userId: user.id, role }));
-    return { id: user.id, email, name: user.name, agent: () => signedIn(t.app, email, PASSWORD) };
-  };
-  const unit = async (code: string, o: { species?: string; kind?: CultureUnit['kind']; state?: CultureUnit['state']; waterType?: CultureUnit['waterType']; salinityPpt?: number } = {}) => {
-    const species = o.species ?? 'channel_catfish';
-    return ds.getRepository(CultureUnit).save(
-      ds.getRepository(CultureUnit).create({
-        farmId: farm.id,
-        code,
-        name: `${code} (${tag})`,
-        kind: o.kind ?? 'pond',
-        waterType: o.waterType ?? 'fresh',
-        defaultSalinityPpt: o.salinityPpt ?? 0,
-        species,
-        lifeStage: null,
-        state: o.state ?? 'active',
-        testFrequencyDays: null,
-        qrLabelId: `${tag}-${code}-${randomUUID()}`,
-        walkOrder: 0,
-        thresholdProfileId: profiles.get(species) ?? null,
-        feedProteinFraction: 0.32,
-        closeWatchUntil: null,
-        outline: null,
-        areaM2: 10_000,
-        volumeM3: 12_000,
-      }),
-    );
-  };
-  const probe = async (unitId: string, quantities: string[], o: { intervalSeconds?: number; createdAt?: Date } = {}) => {
-    const p = await ds.getRepository(Probe).save(
-      ds.getRepository(Probe).create({
-        farmId: farm.id,
-        unitId,
-        probeKey: `t-${randomUUID().slice(0, 12)}`,
-        label: `sonde ${randomUUID().slice(0, 4)}`,
-        model: null,
-        quantities: quantities as Probe['quantities'],
-        intervalSeconds: o.intervalSeconds ?? 60,
-        secretHash: 'sha256:test',
-        secretRotatedAt: new Date(),
-        active: true,
-      }),
-    );
-    if (o.createdAt) await ds.query('UPDATE probes SET created_at = $2 WHERE id = $1', [p.id, o.createdAt]);
-    return p;
-  };
-  const onCall = async (entries: Array<{ userId: string; startsLocal?: string; endsLocal?: string }>) => {
-    await ds.getRepository(OnCallEntry).insert(entries.map((e, i) => ({ farmId: farm.id, userId: e.userId, position: i + 1, startsLocal: e.startsLocal ?? '00:00', endsLocal: e.endsLocal ?? '24:00', weekdays: [1, 2, 3, 4, 5, 6, 7] })));
-  };
-  return { farm, farmId: farm.id, person, unit, probe, onCall };
-}
+const makeFarm = (tag: string, opts: TestFarmOptions = {}) => createTestFarm(t, tag, opts);
 
 
 type LiveMessage = { type: string; farmId: string; unitId?: string | null; data?: Record<string, unknown> };
@@ -179,7 +109,7 @@ async function openStream(baseUrl: string, farmId: string, cookie: string) {
 }
 
 async function sessionCookie(email: string): Promise<string> {
-  const res = await request(t.app).post('/api/auth/login').set('content-type', 'application/json').send({ email, password: PASSWORD });
+  const res = await request(t.app).post('/api/auth/login').set('content-type', 'application/json').send({ email, password: TEST_FARM_PASSWORD });
   const raw = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('gw_session='))!;
   return raw.split(';')[0]!;
 }
